@@ -1,0 +1,11 @@
+//! Chemistry that knows nothing of basis sets: elements, atoms, molecules, XYZ files
+//! and length units.
+
+pub mod elements;
+pub mod molecule;
+pub mod units;
+pub mod xyz;
+
+pub use elements::Element;
+pub use molecule::{Atom, Molecule};
+pub use units::LengthUnit;

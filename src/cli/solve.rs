@@ -1,0 +1,74 @@
+//! `lobecast solve`: orbital energies, occupations and make-up of a model.
+
+use std::path::PathBuf;
+
+use clap::Args;
+
+use super::common::{load_model, print_notes};
+use crate::chem::units::hartree_to_ev;
+use crate::error::Result;
+use crate::solve::{OrbitalSet, orbitals_for};
+
+#[derive(Debug, Args)]
+pub struct SolveArgs {
+    /// Model file (TOML)
+    pub model: PathBuf,
+}
+
+pub fn run(args: SolveArgs) -> Result<()> {
+    let model = load_model(&args.model)?;
+    let set = orbitals_for(&model)?;
+    println!(
+        "lobecast solve: {} from {}, {}, {} electron(s); energies include the nuclear repulsion {:.8} hartree",
+        set.molecule.formula(),
+        model.path.display(),
+        set.method,
+        set.molecule.electron_count(),
+        set.molecule.nuclear_repulsion()
+    );
+    print!("{}", table(&set));
+    print_notes(&set.notes);
+    Ok(())
+}
+
+fn table(set: &OrbitalSet) -> String {
+    let mut t = format!(
+        "{:>4} {:>16} {:>12} {:>5}  {}\n",
+        "#", "energy/hartree", "energy/eV", "occ", "largest coefficients"
+    );
+    for (i, o) in set.orbitals.iter().enumerate() {
+        t += &format!(
+            "{:>4} {:16.8} {:12.5} {:5.2}  {}\n",
+            i + 1,
+            o.energy,
+            hartree_to_ev(o.energy),
+            o.occupation,
+            character(set, &o.coefficients)
+        );
+    }
+    t
+}
+
+/// The biggest few coefficients with their atoms and functions, e.g.
+/// "H1 1s(ζ=1.000) +0.5480, H2 1s(ζ=1.000) −0.5480".
+fn character(set: &OrbitalSet, c: &[f64]) -> String {
+    let mut order: Vec<usize> = (0..c.len()).collect();
+    order.sort_by(|&a, &b| c[b].abs().total_cmp(&c[a].abs()));
+    order
+        .iter()
+        .take(4)
+        .filter(|&&m| c[m].abs() > 1e-3)
+        .map(|&m| {
+            let f = &set.basis.functions[m];
+            let atom = f.atom();
+            format!(
+                "{}{} {} {:+.4}",
+                set.molecule.atoms[atom].element.symbol,
+                atom + 1,
+                f.label(),
+                c[m]
+            )
+        })
+        .collect::<Vec<_>>()
+        .join(", ")
+}

@@ -1,0 +1,160 @@
+//! `lobecast volume`: sample fields on a box around the molecule into a cube file.
+
+use std::io::{BufWriter, IsTerminal};
+use std::path::PathBuf;
+use std::time::Instant;
+
+use clap::Args;
+
+use super::common::{length, load_model, print_notes};
+use crate::chem::LengthUnit;
+use crate::cube::{CubeAtom, CubeHeader, write_streaming};
+use crate::error::{Error, Result};
+use crate::field::{Field, FieldSampler};
+use crate::grid::{GridBox, Resolution};
+use crate::output::OutputFile;
+use crate::solve::orbitals_for;
+
+/// Default box padding around the outermost nuclei (bohr).
+pub const DEFAULT_PADDING_BOHR: f64 = 5.0;
+/// Default point spacing (bohr); fine enough for valence orbitals (common practice).
+pub const DEFAULT_SPACING_BOHR: f64 = 0.15;
+
+#[derive(Debug, Args)]
+pub struct VolumeArgs {
+    /// Model file (TOML)
+    pub model: PathBuf,
+    /// Field to sample; repeat for several (stored together in one multi-orbital cube).
+    /// orbital:N, orbital-density:N, orbital-deformation:N (N = number, homo, lumo,
+    /// homo-1, lumo+1, …) or density
+    #[arg(long = "field", required = true, value_name = "FIELD")]
+    pub fields: Vec<String>,
+    /// Distance between grid points (in --units) [default: 0.15 bohr]
+    #[arg(long, conflicts_with = "points", allow_negative_numbers = true)]
+    pub spacing: Option<f64>,
+    /// Number of points along the longest edge of the box, instead of --spacing
+    #[arg(long)]
+    pub points: Option<usize>,
+    /// Space between the outermost nuclei and the box faces (in --units) [default: 5 bohr]
+    #[arg(long, allow_negative_numbers = true)]
+    pub padding: Option<f64>,
+    /// Unit of --spacing and --padding
+    #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
+    pub units: LengthUnit,
+    /// Output cube file (lengths in bohr)
+    #[arg(long, value_name = "FILE")]
+    pub out: PathBuf,
+    /// Refuse to write a file larger than this many bytes
+    #[arg(long, default_value_t = 4_000_000_000, value_name = "BYTES")]
+    pub max_bytes: u64,
+}
+
+pub fn run(args: VolumeArgs) -> Result<()> {
+    let started = Instant::now();
+    let fields = args
+        .fields
+        .iter()
+        .map(|f| Field::parse(f))
+        .collect::<Result<Vec<_>>>()?;
+    let model = load_model(&args.model)?;
+    crate::output::check_not_input(&args.out, &model.inputs)?;
+    let set = orbitals_for(&model)?;
+    let sampler = FieldSampler::new(&set, &fields)?;
+    let padding = args
+        .padding
+        .map_or(DEFAULT_PADDING_BOHR, |p| length(p, args.units));
+    let resolution = match (args.spacing, args.points) {
+        (_, Some(n)) => Resolution::Points(n),
+        (Some(h), None) => Resolution::Spacing(length(h, args.units)),
+        (None, None) => Resolution::Spacing(DEFAULT_SPACING_BOHR),
+    };
+    let grid = GridBox::around(&set.molecule, padding, resolution)?;
+    let descriptions = fields
+        .iter()
+        .map(|f| f.describe(&set))
+        .collect::<Result<Vec<_>>>()?;
+    let header = CubeHeader {
+        title: format!(
+            "lobecast volume: {} from {}",
+            set.molecule.formula(),
+            model.path.display()
+        ),
+        comment: format!(
+            "{}; {}; lobecast {}",
+            descriptions.join("; "),
+            set.method,
+            env!("CARGO_PKG_VERSION")
+        ),
+        atoms: set
+            .molecule
+            .atoms
+            .iter()
+            .map(|a| CubeAtom {
+                atomic_number: a.element.atomic_number,
+                charge: a.charge(),
+                position: a.position,
+            })
+            .collect(),
+        grid: grid.clone(),
+        orbital_numbers: if fields.len() > 1 {
+            Some(
+                fields
+                    .iter()
+                    .map(|f| f.orbital_number(&set))
+                    .collect::<Result<Vec<_>>>()?,
+            )
+        } else {
+            None
+        },
+    };
+    let bytes = header.predicted_bytes();
+    if bytes > args.max_bytes {
+        return Err(Error::input(format!(
+            "the cube would be {:.2} GB ({} points × {} fields), above --max-bytes {}",
+            bytes as f64 / 1e9,
+            grid.point_count(),
+            fields.len(),
+            args.max_bytes
+        ))
+        .with_hint("use a coarser --spacing, fewer --points, or raise --max-bytes"));
+    }
+    let mut out = OutputFile::create(&args.out, &model.inputs)?;
+    let bar = progress_bar(&grid);
+    {
+        let mut w = BufWriter::with_capacity(1 << 20, out.file());
+        write_streaming(&header, |p, v| sampler.evaluate(p, v), &mut w, &|done| {
+            bar.set_position(done as u64)
+        })?;
+    }
+    bar.finish_and_clear();
+    out.commit()?;
+    let [nx, ny, nz] = grid.counts;
+    println!(
+        "wrote {}: {} field(s), {nx}×{ny}×{nz} points at {:.4} bohr spacing, {:.1} MB, in {:.2} s",
+        args.out.display(),
+        fields.len(),
+        grid.axes[0][0],
+        bytes as f64 / 1e6,
+        started.elapsed().as_secs_f64()
+    );
+    for d in &descriptions {
+        println!("  {d}");
+    }
+    print_notes(&set.notes);
+    Ok(())
+}
+
+/// A bar on standard error for large grids when it is a terminal; hidden otherwise.
+fn progress_bar(grid: &GridBox) -> indicatif::ProgressBar {
+    if grid.point_count() < 2_000_000 || !std::io::stderr().is_terminal() {
+        return indicatif::ProgressBar::hidden();
+    }
+    let bar = indicatif::ProgressBar::new(grid.counts[0] as u64);
+    if let Ok(style) =
+        indicatif::ProgressStyle::with_template("{msg} [{bar:40}] {pos}/{len} slabs, {eta} left")
+    {
+        bar.set_style(style.progress_chars("=> "));
+    }
+    bar.set_message("sampling and writing");
+    bar
+}

@@ -1,0 +1,131 @@
+//! Streaming cube writer: header first, then slabs formatted in parallel and written
+//! in order, so memory stays bounded for any grid.
+
+use std::io::Write;
+
+use super::format::push_e13;
+use crate::error::{Error, Result};
+use crate::grid::{GridBox, stream_slabs};
+
+/// Values on one line, as is usual for the layout.
+pub const PER_LINE: usize = 6;
+/// Width of one formatted value.
+pub const WIDTH: usize = 13;
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct CubeAtom {
+    pub atomic_number: u32,
+    pub charge: f64,
+    /// Position in bohr.
+    pub position: [f64; 3],
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct CubeHeader {
+    pub title: String,
+    pub comment: String,
+    pub atoms: Vec<CubeAtom>,
+    pub grid: GridBox,
+    /// `Some` writes the multi-orbital variant (negative atom count and an index line
+    /// listing one number per stored field); `None` a single field.
+    pub orbital_numbers: Option<Vec<usize>>,
+}
+
+impl CubeHeader {
+    pub fn field_count(&self) -> usize {
+        self.orbital_numbers.as_ref().map_or(1, Vec::len)
+    }
+
+    /// The header text. Lengths in bohr, hence positive voxel counts.
+    pub fn text(&self) -> String {
+        let one_line = |s: &str| s.replace(['\r', '\n'], " ");
+        let mut t = format!("{}\n{}\n", one_line(&self.title), one_line(&self.comment));
+        let n = self.atoms.len() as i64;
+        let o = self.grid.origin;
+        let count = if self.orbital_numbers.is_some() {
+            -n
+        } else {
+            n
+        };
+        t += &format!("{count:5}{:12.6}{:12.6}{:12.6}\n", o[0], o[1], o[2]);
+        for (c, a) in self.grid.counts.iter().zip(&self.grid.axes) {
+            t += &format!("{c:5}{:12.6}{:12.6}{:12.6}\n", a[0], a[1], a[2]);
+        }
+        for a in &self.atoms {
+            let p = a.position;
+            t += &format!(
+                "{:5}{:12.6}{:12.6}{:12.6}{:12.6}\n",
+                a.atomic_number, a.charge, p[0], p[1], p[2]
+            );
+        }
+        if let Some(nums) = &self.orbital_numbers {
+            t += &format!("{:5}", nums.len());
+            for k in nums {
+                t += &format!("{k:5}");
+            }
+            t += "\n";
+        }
+        t
+    }
+
+    /// Values in one innermost row (all k, every field).
+    fn row_len(&self) -> usize {
+        self.grid.counts[2] * self.field_count()
+    }
+
+    /// Exact size of the file this header and its values make, in bytes.
+    pub fn predicted_bytes(&self) -> u64 {
+        let row = self.row_len() as u64;
+        let lines_per_row = row.div_ceil(PER_LINE as u64);
+        let rows = (self.grid.counts[0] * self.grid.counts[1]) as u64;
+        self.text().len() as u64 + rows * (row * WIDTH as u64 + lines_per_row)
+    }
+}
+
+/// Formats one slab's values: rows of `row_len` values, six per line, a new line
+/// after each row.
+pub fn format_slab(values: &[f64], row_len: usize, buf: &mut Vec<u8>) {
+    for row in values.chunks(row_len) {
+        for line in row.chunks(PER_LINE) {
+            for &v in line {
+                push_e13(buf, v);
+            }
+            buf.push(b'\n');
+        }
+    }
+}
+
+/// Writes header and values. `eval` fills interleaved values (points × fields);
+/// `progress` is told after every slab.
+pub fn write_streaming<W, E>(
+    header: &CubeHeader,
+    eval: E,
+    out: &mut W,
+    progress: &dyn Fn(usize),
+) -> Result<()>
+where
+    W: Write,
+    E: Fn(&[[f64; 3]], &mut [f64]) + Sync,
+{
+    let io = |e: std::io::Error| Error::internal(format!("writing the cube file failed: {e}"));
+    out.write_all(header.text().as_bytes()).map_err(io)?;
+    let row_len = header.row_len();
+    let mut done = 0;
+    stream_slabs(
+        &header.grid,
+        header.field_count(),
+        eval,
+        |values| {
+            let mut buf = Vec::with_capacity(values.len() * (WIDTH + 1));
+            format_slab(values, row_len, &mut buf);
+            buf
+        },
+        |bytes| {
+            out.write_all(&bytes).map_err(io)?;
+            done += 1;
+            progress(done);
+            Ok(())
+        },
+    )?;
+    out.flush().map_err(io)
+}

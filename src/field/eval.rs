@@ -1,0 +1,132 @@
+//! Batched evaluation: basis values are computed once per batch of points and shared
+//! by every requested field, so a cube with several fields costs little more than one.
+
+use super::Field;
+use crate::basis::BasisFunction;
+use crate::error::Result;
+use crate::solve::OrbitalSet;
+
+#[derive(Debug, Clone)]
+enum Resolved {
+    Orbital(Vec<f64>),
+    OrbitalDensity(Vec<f64>),
+    /// Coefficients and the Mulliken gross populations of the orbital.
+    OrbitalDeformation(Vec<f64>, Vec<f64>),
+    /// (occupation, coefficients) of every occupied orbital.
+    Density(Vec<(f64, Vec<f64>)>),
+}
+
+/// Evaluates a list of fields of one orbital set at points. Values come out
+/// interleaved: for each point, the value of every field in order.
+#[derive(Debug, Clone)]
+pub struct FieldSampler {
+    functions: Vec<BasisFunction>,
+    fields: Vec<Resolved>,
+}
+
+impl FieldSampler {
+    /// Resolves orbital selectors now, so that an out-of-range orbital is an error
+    /// before any work starts.
+    pub fn new(set: &OrbitalSet, fields: &[Field]) -> Result<Self> {
+        let mut resolved = Vec::with_capacity(fields.len());
+        for f in fields {
+            let index = f.selector().map(|s| s.resolve(&set.orbitals)).transpose()?;
+            let coeffs = || {
+                set.orbitals[index.expect("orbital field")]
+                    .coefficients
+                    .clone()
+            };
+            resolved.push(match f {
+                Field::Orbital(_) => Resolved::Orbital(coeffs()),
+                Field::OrbitalDensity(_) => Resolved::OrbitalDensity(coeffs()),
+                Field::OrbitalDeformation(_) => Resolved::OrbitalDeformation(
+                    coeffs(),
+                    set.gross_populations(index.expect("orbital field")),
+                ),
+                Field::Density => Resolved::Density(
+                    set.orbitals
+                        .iter()
+                        .filter(|o| o.occupation > 0.0)
+                        .map(|o| (o.occupation, o.coefficients.clone()))
+                        .collect(),
+                ),
+            });
+        }
+        Ok(FieldSampler {
+            functions: set.basis.functions.clone(),
+            fields: resolved,
+        })
+    }
+
+    pub fn field_count(&self) -> usize {
+        self.fields.len()
+    }
+
+    /// Fills `out` (length points × fields) with the interleaved values.
+    pub fn evaluate(&self, points: &[[f64; 3]], out: &mut [f64]) {
+        let n = points.len();
+        let nf = self.fields.len();
+        assert_eq!(
+            out.len(),
+            n * nf,
+            "output buffer must hold points × fields values"
+        );
+        let mut phi = vec![0.0; n * self.functions.len()];
+        for (f, chunk) in self.functions.iter().zip(phi.chunks_exact_mut(n)) {
+            f.values(points, chunk);
+        }
+        let mut psi = vec![0.0; n];
+        for (k, field) in self.fields.iter().enumerate() {
+            match field {
+                Resolved::Orbital(c) => {
+                    combine(&phi, c, n, &mut psi);
+                    scatter(out, nf, k, psi.iter().copied());
+                }
+                Resolved::OrbitalDensity(c) => {
+                    combine(&phi, c, n, &mut psi);
+                    scatter(out, nf, k, psi.iter().map(|v| v * v));
+                }
+                Resolved::OrbitalDeformation(c, q) => {
+                    combine(&phi, c, n, &mut psi);
+                    for (p, row) in psi.iter_mut().enumerate() {
+                        let atomic: f64 = q
+                            .iter()
+                            .enumerate()
+                            .map(|(m, qm)| qm * phi[m * n + p].powi(2))
+                            .sum();
+                        *row = *row * *row - atomic;
+                    }
+                    scatter(out, nf, k, psi.iter().copied());
+                }
+                Resolved::Density(list) => {
+                    let mut rho = vec![0.0; n];
+                    for (occ, c) in list {
+                        combine(&phi, c, n, &mut psi);
+                        for (r, v) in rho.iter_mut().zip(&psi) {
+                            *r += occ * v * v;
+                        }
+                    }
+                    scatter(out, nf, k, rho.into_iter());
+                }
+            }
+        }
+    }
+}
+
+/// ψ(p) = Σ_μ c_μ φ_μ(p) for every point, with φ stored function-major.
+fn combine(phi: &[f64], c: &[f64], n: usize, psi: &mut [f64]) {
+    psi.fill(0.0);
+    for (m, &cm) in c.iter().enumerate() {
+        if cm != 0.0 {
+            for (v, p) in psi.iter_mut().zip(&phi[m * n..(m + 1) * n]) {
+                *v += cm * p;
+            }
+        }
+    }
+}
+
+fn scatter(out: &mut [f64], stride: usize, offset: usize, values: impl Iterator<Item = f64>) {
+    for (slot, v) in out.iter_mut().skip(offset).step_by(stride).zip(values) {
+        *slot = v;
+    }
+}

@@ -1,0 +1,133 @@
+//! What to evaluate: the `Field` enum, parsed from `orbital:N`, `orbital-density:N`,
+//! `orbital-deformation:N` and `density`, and its batched evaluation at points.
+
+mod eval;
+
+pub use eval::FieldSampler;
+
+use crate::error::{Error, Result};
+use crate::solve::{OrbitalSelector, OrbitalSet};
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Field {
+    /// ψ_N itself (signed), bohr^(-3/2).
+    Orbital(OrbitalSelector),
+    /// |ψ_N|², bohr⁻³.
+    OrbitalDensity(OrbitalSelector),
+    /// |ψ_N|² − Σ_μ q_μ φ_μ², with q_μ the Mulliken gross populations of orbital N:
+    /// where the orbital gains and loses density against its own atomic pieces.
+    /// It integrates to zero. bohr⁻³.
+    OrbitalDeformation(OrbitalSelector),
+    /// Σ_i n_i |ψ_i|² over occupied orbitals, bohr⁻³.
+    Density,
+}
+
+const ACCEPTED: &str = "orbital:N, orbital-density:N, orbital-deformation:N (N a number, homo, lumo, homo-1, lumo+1, …) or density";
+
+impl Field {
+    pub fn parse(text: &str) -> Result<Self> {
+        let t = text.trim();
+        let bad = || {
+            Error::input(format!("unknown field {text:?}"))
+                .with_hint(format!("fields are {ACCEPTED}"))
+        };
+        match t.split_once(':') {
+            None if t.eq_ignore_ascii_case("density") => Ok(Field::Density),
+            None => Err(bad()),
+            Some((kind, sel)) => {
+                let sel = OrbitalSelector::parse(sel)?;
+                match kind.to_ascii_lowercase().as_str() {
+                    "orbital" => Ok(Field::Orbital(sel)),
+                    "orbital-density" => Ok(Field::OrbitalDensity(sel)),
+                    "orbital-deformation" => Ok(Field::OrbitalDeformation(sel)),
+                    _ => Err(bad()),
+                }
+            }
+        }
+    }
+
+    pub fn selector(&self) -> Option<OrbitalSelector> {
+        match self {
+            Field::Orbital(s) | Field::OrbitalDensity(s) | Field::OrbitalDeformation(s) => Some(*s),
+            Field::Density => None,
+        }
+    }
+
+    /// Whether the field takes both signs (drives colour scales and isovalues).
+    pub fn is_signed(&self) -> bool {
+        matches!(self, Field::Orbital(_) | Field::OrbitalDeformation(_))
+    }
+
+    /// Unit of the field's values in atomic units.
+    pub fn unit(&self) -> &'static str {
+        match self {
+            Field::Orbital(_) => "bohr^-3/2",
+            _ => "e/bohr^3",
+        }
+    }
+
+    /// A one-line description with the resolved orbital number and energy.
+    pub fn describe(&self, set: &OrbitalSet) -> Result<String> {
+        let kind = match self {
+            Field::Orbital(_) => "orbital",
+            Field::OrbitalDensity(_) => "orbital density",
+            Field::OrbitalDeformation(_) => "orbital deformation density",
+            Field::Density => return Ok(format!("electron density ({})", self.unit())),
+        };
+        let i = self
+            .selector()
+            .expect("orbital fields carry a selector")
+            .resolve(&set.orbitals)?;
+        let o = &set.orbitals[i];
+        Ok(format!(
+            "{kind} {} (E = {:.6} hartree, occupation {}) in {}",
+            i + 1,
+            o.energy,
+            o.occupation,
+            self.unit()
+        ))
+    }
+
+    /// The 1-based orbital number a field refers to, 0 for the total density.
+    pub fn orbital_number(&self, set: &OrbitalSet) -> Result<usize> {
+        match self.selector() {
+            Some(s) => Ok(s.resolve(&set.orbitals)? + 1),
+            None => Ok(0),
+        }
+    }
+}
+
+impl std::fmt::Display for Field {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Field::Orbital(s) => write!(f, "orbital:{s}"),
+            Field::OrbitalDensity(s) => write!(f, "orbital-density:{s}"),
+            Field::OrbitalDeformation(s) => write!(f, "orbital-deformation:{s}"),
+            Field::Density => write!(f, "density"),
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn parses_fields() {
+        assert_eq!(
+            Field::parse("orbital:2").unwrap(),
+            Field::Orbital(OrbitalSelector::Number(2))
+        );
+        assert_eq!(
+            Field::parse("orbital-deformation:homo").unwrap(),
+            Field::OrbitalDeformation(OrbitalSelector::Homo(0))
+        );
+        assert_eq!(Field::parse("DENSITY").unwrap(), Field::Density);
+        assert!(Field::parse("orbitals:1").is_err());
+        assert!(Field::parse("orbital:x").is_err());
+        assert_eq!(
+            Field::parse("orbital-density:lumo+1").unwrap().to_string(),
+            "orbital-density:lumo+1"
+        );
+    }
+}

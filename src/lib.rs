@@ -1,0 +1,20 @@
+//! lobecast: LCAO molecular orbitals turned into cube volumes, figures and the
+//! integrals and energies behind them. Lengths are in bohr and energies in hartree
+//! everywhere inside the library; conversions happen only at the edges.
+//!
+//! The data flow is model → `Molecule` + `Basis` → `OrbitalSet` → `Field` → sampled
+//! on a grid → sinks (cube files, tables). Each stage is a plain function on plain data.
+
+pub mod basis;
+pub mod chem;
+pub mod cli;
+pub mod cube;
+pub mod error;
+pub mod field;
+pub mod grid;
+pub mod integrals;
+pub mod model;
+pub mod output;
+pub mod solve;
+
+pub use error::{Error, Result};

@@ -1,0 +1,201 @@
+//! The model file (TOML): which molecule, which basis, which method. Reading it
+//! yields plain data; nothing here solves or evaluates.
+//!
+//! ```toml
+//! [molecule]
+//! units = "bohr"            # or "angstrom" (default)
+//! charge = 1
+//! atoms = [{ element = "H", position = [0, 0, -1] }, { element = "H", position = [0, 0, 1] }]
+//! # xyz = "file.xyz"        # instead of atoms; relative to the model file
+//! [basis]
+//! set = "slater-1s"
+//! zeta = { H = 1.0 }        # optional, per element; default ζ = Z
+//! [orbitals]
+//! method = "one-electron"
+//! ```
+
+use std::collections::BTreeMap;
+use std::path::{Path, PathBuf};
+
+use serde::Deserialize;
+
+use crate::basis::{Basis, BasisSetName};
+use crate::chem::xyz::parse_xyz;
+use crate::chem::{Atom, LengthUnit, Molecule, elements};
+use crate::error::{Error, Result};
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct ModelFile {
+    molecule: MoleculeSection,
+    basis: BasisSection,
+    #[serde(default)]
+    orbitals: OrbitalsSection,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct MoleculeSection {
+    #[serde(default)]
+    units: LengthUnit,
+    #[serde(default)]
+    charge: i32,
+    atoms: Option<Vec<AtomEntry>>,
+    xyz: Option<String>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct AtomEntry {
+    element: String,
+    position: [f64; 3],
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct BasisSection {
+    set: String,
+    #[serde(default)]
+    zeta: BTreeMap<String, f64>,
+}
+
+#[derive(Debug, Deserialize, Default)]
+#[serde(deny_unknown_fields)]
+struct OrbitalsSection {
+    #[serde(default)]
+    method: Method,
+}
+
+/// How the orbitals are obtained.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Default)]
+#[serde(rename_all = "kebab-case")]
+pub enum Method {
+    #[default]
+    OneElectron,
+}
+
+/// A read and checked model.
+#[derive(Debug, Clone)]
+pub struct Model {
+    pub path: PathBuf,
+    pub molecule: Molecule,
+    pub basis: Basis,
+    pub method: Method,
+    /// Every file the model was read from (the model itself and any XYZ file), so
+    /// that no output is ever written over one of them.
+    pub inputs: Vec<PathBuf>,
+}
+
+pub fn load(path: &Path) -> Result<Model> {
+    let text = std::fs::read_to_string(path)
+        .map_err(|e| Error::input(format!("cannot read model file {}: {e}", path.display())))?;
+    parse(&text, path)
+}
+
+/// Parses model text; `path` names the file in errors and anchors a relative `xyz`.
+pub fn parse(text: &str, path: &Path) -> Result<Model> {
+    let name = path.display().to_string();
+    let file: ModelFile = toml::from_str(text).map_err(|e| toml_error(&name, text, &e))?;
+    let m = file.molecule;
+    let mut inputs = vec![path.to_path_buf()];
+    let atoms = match (m.atoms, m.xyz) {
+        (Some(_), Some(_)) => {
+            return Err(Error::input(format!(
+                "{name}: [molecule] gives both atoms and xyz; give one"
+            )));
+        }
+        (None, None) => {
+            return Err(Error::input(format!(
+                "{name}: [molecule] needs atoms = [...] or xyz = \"file\""
+            )));
+        }
+        (Some(list), None) => list
+            .iter()
+            .enumerate()
+            .map(|(i, a)| {
+                let element = elements::by_symbol(&a.element).ok_or_else(|| {
+                    Error::input(format!(
+                        "{name}: atom {} has unknown element {:?}",
+                        i + 1,
+                        a.element
+                    ))
+                })?;
+                Ok(Atom {
+                    element,
+                    position: a.position.map(|x| m.units.to_bohr(x)),
+                })
+            })
+            .collect::<Result<Vec<_>>>()?,
+        (None, Some(xyz)) => {
+            let xyz_path = path.parent().unwrap_or(Path::new(".")).join(&xyz);
+            let text = std::fs::read_to_string(&xyz_path).map_err(|e| {
+                Error::input(format!(
+                    "{name}: cannot read xyz file {}: {e}",
+                    xyz_path.display()
+                ))
+            })?;
+            let frame = parse_xyz(&text, &xyz_path.display().to_string(), m.units)?;
+            inputs.push(xyz_path);
+            frame.atoms
+        }
+    };
+    let molecule = Molecule::new(atoms, m.charge)
+        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    let set = BasisSetName::parse(&file.basis.set)?;
+    let basis = Basis::build(set, &molecule, &file.basis.zeta)?;
+    Ok(Model {
+        path: path.to_path_buf(),
+        molecule,
+        basis,
+        method: file.orbitals.method,
+        inputs,
+    })
+}
+
+/// One line: file, line number, and TOML's own message (which names the key).
+fn toml_error(name: &str, text: &str, e: &toml::de::Error) -> Error {
+    let line = e
+        .span()
+        .map(|s| text[..s.start.min(text.len())].lines().count().max(1));
+    let msg = e.message().trim().replace('\n', " ");
+    match line {
+        Some(l) => Error::input(format!("{name} line {l}: {msg}")),
+        None => Error::input(format!("{name}: {msg}")),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    const GOOD: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\natoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"h\", position = [0, 0, 1] }]\n[basis]\nset = \"slater-1s\"\nzeta = { H = 1.2 }\n";
+
+    #[test]
+    fn reads_a_model() {
+        let m = parse(GOOD, Path::new("m.toml")).unwrap();
+        assert_eq!(m.molecule.atoms.len(), 2);
+        assert_eq!(m.molecule.atoms[1].position[2], 1.0);
+        assert_eq!(m.molecule.electron_count(), 1);
+        assert_eq!(m.basis.functions.len(), 2);
+        assert_eq!(m.basis.functions[1].label(), "1s(ζ=1.200)");
+    }
+
+    #[test]
+    fn unknown_key_names_key_and_line() {
+        let text = GOOD.replace("charge = 1", "charge = 1\nchrage = 2");
+        let e = parse(&text, Path::new("m.toml")).unwrap_err();
+        assert!(
+            e.message.contains("line 4") && e.message.contains("chrage"),
+            "{}",
+            e.message
+        );
+    }
+
+    #[test]
+    fn angstrom_is_the_default_unit() {
+        let text = GOOD.replace("units = \"bohr\"\n", "");
+        let m = parse(&text, Path::new("m.toml")).unwrap();
+        // 1 Å in bohr with the CODATA 2018 Bohr radius.
+        assert!((m.molecule.atoms[1].position[2] - 1.0 / 0.529_177_210_903).abs() < 1e-12);
+    }
+}

@@ -1,0 +1,20 @@
+//! Turning a molecule and a basis into orbitals: the generalised eigenproblem, the
+//! one-electron solver, occupations, orbital selection and energy curves.
+
+pub mod brent;
+pub mod curve;
+pub mod eigen;
+pub mod one_electron;
+pub mod orbitals;
+
+pub use orbitals::{Orbital, OrbitalSelector, OrbitalSet};
+
+use crate::error::Result;
+use crate::model::{Method, Model};
+
+/// Obtains the orbitals a model asks for.
+pub fn orbitals_for(model: &Model) -> Result<OrbitalSet> {
+    match model.method {
+        Method::OneElectron => one_electron::solve(&model.molecule, &model.basis),
+    }
+}
