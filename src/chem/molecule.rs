@@ -92,6 +92,17 @@ impl Molecule {
             .collect()
     }
 
+    /// The formula with its charge, e.g. "H2+" or "C2H4" or "SO4-2".
+    pub fn formula_with_charge(&self) -> String {
+        match self.charge {
+            0 => self.formula(),
+            1 => format!("{}+", self.formula()),
+            -1 => format!("{}-", self.formula()),
+            q if q > 0 => format!("{}+{q}", self.formula()),
+            q => format!("{}-{}", self.formula(), -q),
+        }
+    }
+
     /// Classical repulsion of the nuclei (hartree).
     pub fn nuclear_repulsion(&self) -> f64 {
         let mut e = 0.0;

@@ -99,7 +99,8 @@ pub fn run(args: CurveArgs) -> Result<()> {
         format!("{zeta}")
     };
     println!(
-        "lobecast curve: {symbol}{symbol} one-electron ion, Z = {z}, 1s Slater functions, ζ = {zeta_text}; {} separations",
+        "lobecast curve: {}, one electron, Z = {z}, one 1s Slater function per nucleus, ζ = {zeta_text}; {} separations",
+        model.molecule.formula_with_charge(),
         points.len()
     );
     print!("{}", table(&points, args.optimize_zeta));

@@ -20,7 +20,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
     let set = orbitals_for(&model)?;
     println!(
         "lobecast solve: {} from {}, {}, {} electron(s); energies include the nuclear repulsion {:.8} hartree",
-        set.molecule.formula(),
+        set.molecule.formula_with_charge(),
         model.path.display(),
         set.method,
         set.molecule.electron_count(),
@@ -53,7 +53,8 @@ fn table(set: &OrbitalSet) -> String {
 /// "H1 1s(ζ=1.000) +0.5480, H2 1s(ζ=1.000) −0.5480".
 fn character(set: &OrbitalSet, c: &[f64]) -> String {
     let mut order: Vec<usize> = (0..c.len()).collect();
-    order.sort_by(|&a, &b| c[b].abs().total_cmp(&c[a].abs()));
+    // Equal magnitudes (to 1e-9) keep basis order, so symmetric orbitals read A then B.
+    order.sort_by(|&a, &b| ((c[b].abs() - c[a].abs()) / 1e-9).round().total_cmp(&0.0).then(a.cmp(&b)));
     order
         .iter()
         .take(4)

@@ -76,7 +76,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let header = CubeHeader {
         title: format!(
             "lobecast volume: {} from {}",
-            set.molecule.formula(),
+            set.molecule.formula_with_charge(),
             model.path.display()
         ),
         comment: format!(

@@ -49,13 +49,13 @@ pub fn push_e13(buf: &mut Vec<u8>, v: f64) {
     }
     let a = v.abs();
     let mut e = a.log10().floor() as i32;
-    let mut m = scale10(a, 5 - e).round() as u64;
+    let mut m = scale10(a, 5 - e).round_ties_even() as u64;
     if m >= 1_000_000 {
         e += 1;
-        m = scale10(a, 5 - e).round() as u64;
+        m = scale10(a, 5 - e).round_ties_even() as u64;
     } else if m < 100_000 {
         e -= 1;
-        m = scale10(a, 5 - e).round() as u64;
+        m = scale10(a, 5 - e).round_ties_even() as u64;
     }
     if m >= 1_000_000 {
         // 9.999995… rounds up to 10.00000: renormalise.
@@ -69,7 +69,7 @@ pub fn push_e13(buf: &mut Vec<u8>, v: f64) {
     }
     let ae = e.unsigned_abs();
     let exp_len = if ae >= 100 { 3 } else { 2 };
-    let len = 1 + 7 + 2 + exp_len;
+    let len = 7 + 2 + exp_len; // d.ddddd, E and sign, exponent digits
     let pad = 13usize.saturating_sub(len + usize::from(v < 0.0));
     buf.extend(std::iter::repeat_n(b' ', pad));
     if v < 0.0 {
