@@ -154,7 +154,13 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
 
 /// One line: file, line number, and TOML's own message (which names the key).
 fn toml_error(name: &str, text: &str, e: &toml::de::Error) -> Error {
-    let line = e.span().map(|s| text.as_bytes()[..s.start.min(text.len())].iter().filter(|&&b| b == b'\n').count() + 1);
+    let line = e.span().map(|s| {
+        text.as_bytes()[..s.start.min(text.len())]
+            .iter()
+            .filter(|&&b| b == b'\n')
+            .count()
+            + 1
+    });
     let msg = e.message().trim().replace('\n', " ");
     match line {
         Some(l) => Error::input(format!("{name} line {l}: {msg}")),

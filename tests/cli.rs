@@ -12,7 +12,11 @@ const H2: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
     [basis]\nset = \"slater-1s\"\n";
 
 fn run(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN).current_dir(dir).args(args).output().expect("the binary runs")
+    Command::new(BIN)
+        .current_dir(dir)
+        .args(args)
+        .output()
+        .expect("the binary runs")
 }
 
 fn model(dir: &Path, name: &str, text: &str) -> PathBuf {
@@ -28,9 +32,15 @@ fn assert_input_error(dir: &Path, out: &Output, needle: &str, keep: &[&str]) {
     assert_eq!(out.status.code(), Some(2), "stderr: {err}");
     let lines: Vec<&str> = err.lines().collect();
     assert!(lines[0].starts_with("error: "), "{err}");
-    assert!(lines.len() == 1 || (lines.len() == 2 && lines[1].starts_with("hint: ")), "{err}");
+    assert!(
+        lines.len() == 1 || (lines.len() == 2 && lines[1].starts_with("hint: ")),
+        "{err}"
+    );
     assert!(err.contains(needle), "expected {needle:?} in {err}");
-    let mut names: Vec<String> = fs::read_dir(dir).unwrap().map(|e| e.unwrap().file_name().into_string().unwrap()).collect();
+    let mut names: Vec<String> = fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().into_string().unwrap())
+        .collect();
     names.sort();
     let mut keep: Vec<String> = keep.iter().map(|s| s.to_string()).collect();
     keep.sort();
@@ -42,11 +52,39 @@ fn bad_models_are_refused_with_the_reason() {
     let d = tempfile::tempdir().unwrap();
     let cases: &[(&str, &str, &[&str], &str)] = &[
         ("syntax.toml", "[molecule\n", &["solve"], "line 1"),
-        ("element.toml", &H2.replace("element = \"H\", position = [0, 0, 1]", "element = \"Xq\", position = [0, 0, 1]"), &["solve"], "Xq"),
-        ("key.toml", &H2.replace("charge = 1", "charge = 1\ncolour = 3"), &["solve"], "colour"),
-        ("same.toml", &H2.replace("[0, 0, 1]", "[0, 0, -1]"), &["solve"], "same place"),
-        ("two.toml", &H2.replace("charge = 1", "charge = 0"), &["solve"], "exactly one electron"),
-        ("basis.toml", &H2.replace("slater-1s", "slater-9z"), &["solve"], "slater-9z"),
+        (
+            "element.toml",
+            &H2.replace(
+                "element = \"H\", position = [0, 0, 1]",
+                "element = \"Xq\", position = [0, 0, 1]",
+            ),
+            &["solve"],
+            "Xq",
+        ),
+        (
+            "key.toml",
+            &H2.replace("charge = 1", "charge = 1\ncolour = 3"),
+            &["solve"],
+            "colour",
+        ),
+        (
+            "same.toml",
+            &H2.replace("[0, 0, 1]", "[0, 0, -1]"),
+            &["solve"],
+            "same place",
+        ),
+        (
+            "two.toml",
+            &H2.replace("charge = 1", "charge = 0"),
+            &["solve"],
+            "exactly one electron",
+        ),
+        (
+            "basis.toml",
+            &H2.replace("slater-1s", "slater-9z"),
+            &["solve"],
+            "slater-9z",
+        ),
     ];
     let mut keep: Vec<&str> = Vec::new();
     for (name, text, cmd, needle) in cases {
@@ -63,26 +101,118 @@ fn bad_models_are_refused_with_the_reason() {
 fn bad_flags_are_refused_before_anything_is_written() {
     let d = tempfile::tempdir().unwrap();
     model(d.path(), "h2.toml", H2);
-    model(d.path(), "h3.toml", &H2.replace("[0, 0, 1] }]", "[0, 0, 1] }, { element = \"H\", position = [0, 0, 3] }]"));
+    model(
+        d.path(),
+        "h3.toml",
+        &H2.replace(
+            "[0, 0, 1] }]",
+            "[0, 0, 1] }, { element = \"H\", position = [0, 0, 3] }]",
+        ),
+    );
     let curve = ["curve", "h2.toml", "--units", "bohr", "--csv", "c.csv"];
     let cases: Vec<(Vec<&str>, &str)> = vec![
-        ([&curve[..], &["--from", "0", "--to", "4", "--step", "0.1"]].concat(), "R > 0"),
-        ([&curve[..], &["--from", "1", "--to", "4", "--step", "-0.1"]].concat(), "--step"),
-        ([&curve[..], &["--from", "4", "--to", "1", "--step", "0.1"]].concat(), "--to"),
-        (vec!["curve", "h3.toml", "--from", "1", "--to", "2", "--step", "0.1"], "exactly two atoms"),
-        (vec!["volume", "h2.toml", "--field", "orbital:3", "--out", "v.cube"], "no orbital 3"),
-        (vec!["volume", "h2.toml", "--field", "orbit:1", "--out", "v.cube"], "unknown field"),
-        (vec!["volume", "h2.toml", "--field", "orbital:1", "--spacing", "0", "--out", "v.cube"], "spacing"),
-        (vec!["volume", "h2.toml", "--field", "orbital:1", "--out", "h2.toml"], "also an input"),
-        (vec!["volume", "h2.toml", "--field", "orbital:1", "--out", "no/such/dir/v.cube"], "cannot write"),
-        (vec!["volume", "h2.toml", "--field", "orbital:1", "--max-bytes", "1000", "--out", "v.cube"], "--max-bytes"),
-        (vec!["volume", "h2.toml", "--feild", "orbital:1", "--out", "v.cube"], "--feild"),
+        (
+            [&curve[..], &["--from", "0", "--to", "4", "--step", "0.1"]].concat(),
+            "R > 0",
+        ),
+        (
+            [&curve[..], &["--from", "1", "--to", "4", "--step", "-0.1"]].concat(),
+            "--step",
+        ),
+        (
+            [&curve[..], &["--from", "4", "--to", "1", "--step", "0.1"]].concat(),
+            "--to",
+        ),
+        (
+            vec![
+                "curve", "h3.toml", "--from", "1", "--to", "2", "--step", "0.1",
+            ],
+            "exactly two atoms",
+        ),
+        (
+            vec![
+                "volume",
+                "h2.toml",
+                "--field",
+                "orbital:3",
+                "--out",
+                "v.cube",
+            ],
+            "no orbital 3",
+        ),
+        (
+            vec!["volume", "h2.toml", "--field", "orbit:1", "--out", "v.cube"],
+            "unknown field",
+        ),
+        (
+            vec![
+                "volume",
+                "h2.toml",
+                "--field",
+                "orbital:1",
+                "--spacing",
+                "0",
+                "--out",
+                "v.cube",
+            ],
+            "spacing",
+        ),
+        (
+            vec![
+                "volume",
+                "h2.toml",
+                "--field",
+                "orbital:1",
+                "--out",
+                "h2.toml",
+            ],
+            "also an input",
+        ),
+        (
+            vec![
+                "volume",
+                "h2.toml",
+                "--field",
+                "orbital:1",
+                "--out",
+                "no/such/dir/v.cube",
+            ],
+            "cannot write",
+        ),
+        (
+            vec![
+                "volume",
+                "h2.toml",
+                "--field",
+                "orbital:1",
+                "--max-bytes",
+                "1000",
+                "--out",
+                "v.cube",
+            ],
+            "--max-bytes",
+        ),
+        (
+            vec![
+                "volume",
+                "h2.toml",
+                "--feild",
+                "orbital:1",
+                "--out",
+                "v.cube",
+            ],
+            "--feild",
+        ),
     ];
     for (args, needle) in cases {
         let out = run(d.path(), &args);
         assert_input_error(d.path(), &out, needle, &["h2.toml", "h3.toml"]);
     }
-    assert_eq!(fs::read_to_string(d.path().join("h2.toml")).unwrap(), H2, "the input is untouched");
+    assert_eq!(
+        fs::read_to_string(d.path().join("h2.toml")).unwrap(),
+        H2,
+        "the input is untouched"
+    );
 }
 
 #[test]
@@ -90,11 +220,37 @@ fn an_existing_output_is_replaced_only_on_success() {
     let d = tempfile::tempdir().unwrap();
     model(d.path(), "h2.toml", H2);
     fs::write(d.path().join("v.cube"), "old").unwrap();
-    let out = run(d.path(), &["volume", "h2.toml", "--field", "orbital:9", "--out", "v.cube"]);
+    let out = run(
+        d.path(),
+        &[
+            "volume",
+            "h2.toml",
+            "--field",
+            "orbital:9",
+            "--out",
+            "v.cube",
+        ],
+    );
     assert_eq!(out.status.code(), Some(2));
     assert_eq!(fs::read_to_string(d.path().join("v.cube")).unwrap(), "old");
-    let out = run(d.path(), &["volume", "h2.toml", "--field", "orbital:1", "--out", "v.cube", "--points", "21"]);
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    let out = run(
+        d.path(),
+        &[
+            "volume",
+            "h2.toml",
+            "--field",
+            "orbital:1",
+            "--out",
+            "v.cube",
+            "--points",
+            "21",
+        ],
+    );
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     assert!(fs::read_to_string(d.path().join("v.cube")).unwrap().len() > 1000);
 }
 
@@ -107,25 +263,63 @@ fn multi_field_cube_layout() {
     model(d.path(), "h2.toml", H2);
     let out = run(
         d.path(),
-        &["volume", "h2.toml", "--field", "orbital:1", "--field", "orbital-density:2", "--field", "density", "--spacing", "0.5", "--units", "bohr", "--out", "m.cube"],
+        &[
+            "volume",
+            "h2.toml",
+            "--field",
+            "orbital:1",
+            "--field",
+            "orbital-density:2",
+            "--field",
+            "density",
+            "--spacing",
+            "0.5",
+            "--units",
+            "bohr",
+            "--out",
+            "m.cube",
+        ],
     );
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     let text = fs::read_to_string(d.path().join("m.cube")).unwrap();
     let lines: Vec<&str> = text.lines().collect();
-    let nums = |l: &str| l.split_whitespace().map(|t| t.parse::<f64>().unwrap()).collect::<Vec<_>>();
+    let nums = |l: &str| {
+        l.split_whitespace()
+            .map(|t| t.parse::<f64>().unwrap())
+            .collect::<Vec<_>>()
+    };
     let head = nums(lines[2]);
-    assert_eq!(head[0], -2.0, "negative atom count marks the multi-orbital variant");
+    assert_eq!(
+        head[0], -2.0,
+        "negative atom count marks the multi-orbital variant"
+    );
     let counts: Vec<usize> = (3..6).map(|i| nums(lines[i])[0] as usize).collect();
-    assert_eq!(counts, vec![21, 21, 25], "box of 10 × 10 × 12 bohr at 0.5 bohr");
+    assert_eq!(
+        counts,
+        vec![21, 21, 25],
+        "box of 10 × 10 × 12 bohr at 0.5 bohr"
+    );
     assert_eq!(nums(lines[5])[3], 0.5);
     assert_eq!(nums(lines[6]), vec![1.0, 1.0, 0.0, 0.0, -1.0]);
-    assert_eq!(nums(lines[8]), vec![3.0, 1.0, 2.0, 0.0], "field count, then orbital numbers (0 = total density)");
+    assert_eq!(
+        nums(lines[8]),
+        vec![3.0, 1.0, 2.0, 0.0],
+        "field count, then orbital numbers (0 = total density)"
+    );
     let row: usize = 25 * 3;
     let per_row = row.div_ceil(6);
     let data = &lines[9..];
     assert_eq!(data.len(), 21 * 21 * per_row);
     for (n, l) in data.iter().enumerate() {
-        let expect = if n % per_row == per_row - 1 && row % 6 != 0 { row % 6 } else { 6 };
+        let expect = if n % per_row == per_row - 1 && row % 6 != 0 {
+            row % 6
+        } else {
+            6
+        };
         assert_eq!(l.len(), 13 * expect, "line {} of the values", n + 1);
     }
     let values: Vec<f64> = data.iter().flat_map(|l| nums(l)).collect();

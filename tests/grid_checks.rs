@@ -38,9 +38,16 @@ fn integrals_on_the_grid() {
     let sampler = FieldSampler::new(&set, &list).unwrap();
     let values = sample_all(&grid, list.len(), |p, v| sampler.evaluate(p, v));
     let dv = grid.voxel_volume();
-    let sums: Vec<f64> = (0..list.len()).map(|k| values.iter().skip(k).step_by(list.len()).sum::<f64>() * dv).collect();
+    let sums: Vec<f64> = (0..list.len())
+        .map(|k| values.iter().skip(k).step_by(list.len()).sum::<f64>() * dv)
+        .collect();
     for (k, expected) in [(0, 1.0), (1, 1.0), (2, 0.0), (3, 0.0), (4, 1.0)] {
-        assert!((sums[k] - expected).abs() < 1e-3, "{}: ∫ = {} (expected {expected})", list[k], sums[k]);
+        assert!(
+            (sums[k] - expected).abs() < 1e-3,
+            "{}: ∫ = {} (expected {expected})",
+            list[k],
+            sums[k]
+        );
     }
 }
 
@@ -51,7 +58,9 @@ fn antibonding_orbital_vanishes_on_the_mid_plane() {
     let sampler = FieldSampler::new(&set, &fields(&["orbital:2"])).unwrap();
     let values = sample_all(&grid, 1, |p, v| sampler.evaluate(p, v));
     let [nx, ny, nz] = grid.counts;
-    let mid = (0..nz).find(|&k| grid.point(0, 0, k)[2].abs() < 1e-9).expect("a grid plane at z = 0");
+    let mid = (0..nz)
+        .find(|&k| grid.point(0, 0, k)[2].abs() < 1e-9)
+        .expect("a grid plane at z = 0");
     let max = values.iter().fold(0.0f64, |m, v| m.max(v.abs()));
     for i in 0..nx {
         for j in 0..ny {
@@ -68,12 +77,23 @@ fn antibonding_orbital_vanishes_on_the_mid_plane() {
 #[test]
 fn deformation_at_the_midpoint_has_the_closed_form() {
     let set = set();
-    let sampler = FieldSampler::new(&set, &fields(&["orbital-deformation:1", "orbital-deformation:2"])).unwrap();
+    let sampler = FieldSampler::new(
+        &set,
+        &fields(&["orbital-deformation:1", "orbital-deformation:2"]),
+    )
+    .unwrap();
     let mut v = [0.0; 2];
     sampler.evaluate(&[[0.0, 0.0, 0.0]], &mut v);
     let s = two_centre_1s(1.0, 1.0, 2.0).s;
     let phi_m2 = (-2.0f64).exp() / PI;
-    assert!(v[0] > 0.0 && v[1] < 0.0, "bonding gains, antibonding loses: {v:?}");
-    assert!((v[0] - phi_m2 * (1.0 - s) / (1.0 + s)).abs() < 1e-15, "bonding {}", v[0]);
+    assert!(
+        v[0] > 0.0 && v[1] < 0.0,
+        "bonding gains, antibonding loses: {v:?}"
+    );
+    assert!(
+        (v[0] - phi_m2 * (1.0 - s) / (1.0 + s)).abs() < 1e-15,
+        "bonding {}",
+        v[0]
+    );
     assert!((v[1] + phi_m2).abs() < 1e-15, "antibonding {}", v[1]);
 }

@@ -16,7 +16,9 @@
 
 use lobecast::chem::units::hartree_to_ev;
 use lobecast::integrals::two_centre::two_centre_1s;
-use lobecast::solve::curve::{ZetaChoice, equilibrium, optimal_zeta, scan, separated_limit, separations};
+use lobecast::solve::curve::{
+    ZetaChoice, equilibrium, optimal_zeta, scan, separated_limit, separations,
+};
 
 const EXACT_R2_HARTREE: f64 = -0.602_634_2;
 
@@ -50,9 +52,20 @@ fn refinement_beats_the_scan_step() {
     let rs = separations(0.5, 8.0, 0.05).unwrap();
     let points = scan(1.0, ZetaChoice::Fixed(1.0), &rs);
     let eq = equilibrium(1.0, ZetaChoice::Fixed(1.0), &points).unwrap();
-    assert!(points.iter().all(|p| p.model.e_bonding >= eq.energy - 1e-15));
-    let fine = scan(1.0, ZetaChoice::Fixed(1.0), &separations(2.3, 2.7, 0.001).unwrap());
-    let best = fine.iter().min_by(|a, b| a.model.e_bonding.total_cmp(&b.model.e_bonding)).unwrap();
+    assert!(
+        points
+            .iter()
+            .all(|p| p.model.e_bonding >= eq.energy - 1e-15)
+    );
+    let fine = scan(
+        1.0,
+        ZetaChoice::Fixed(1.0),
+        &separations(2.3, 2.7, 0.001).unwrap(),
+    );
+    let best = fine
+        .iter()
+        .min_by(|a, b| a.model.e_bonding.total_cmp(&b.model.e_bonding))
+        .unwrap();
     assert!((best.r - eq.r).abs() <= 0.001, "{} vs {}", best.r, eq.r);
 }
 
@@ -62,7 +75,10 @@ fn variational_principle_against_the_exact_energy() {
     let zeta = optimal_zeta(1.0, 2.0);
     let optimised = two_centre_1s(1.0, zeta, 2.0).e_bonding;
     assert!(fixed > EXACT_R2_HARTREE, "ζ = 1: {fixed}");
-    assert!(optimised < fixed, "optimising ζ must lower the energy: {optimised} vs {fixed}");
+    assert!(
+        optimised < fixed,
+        "optimising ζ must lower the energy: {optimised} vs {fixed}"
+    );
     assert!(optimised > EXACT_R2_HARTREE, "optimised: {optimised}");
 }
 

@@ -54,7 +54,12 @@ fn table(set: &OrbitalSet) -> String {
 fn character(set: &OrbitalSet, c: &[f64]) -> String {
     let mut order: Vec<usize> = (0..c.len()).collect();
     // Equal magnitudes (to 1e-9) keep basis order, so symmetric orbitals read A then B.
-    order.sort_by(|&a, &b| ((c[b].abs() - c[a].abs()) / 1e-9).round().total_cmp(&0.0).then(a.cmp(&b)));
+    order.sort_by(|&a, &b| {
+        ((c[b].abs() - c[a].abs()) / 1e-9)
+            .round()
+            .total_cmp(&0.0)
+            .then(a.cmp(&b))
+    });
     order
         .iter()
         .take(4)

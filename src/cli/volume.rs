@@ -130,7 +130,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     out.commit()?;
     let [nx, ny, nz] = grid.counts;
     println!(
-        "wrote {}: {} field(s), {nx}×{ny}×{nz} points at {:.4} bohr spacing, {:.1} MB, in {:.2} s",
+        "wrote {}: {} field(s), {nx}×{ny}×{nz} points at {:.6} bohr spacing, {:.1} MB, in {:.2} s",
         args.out.display(),
         fields.len(),
         grid.axes[0][0],

@@ -3,30 +3,39 @@
 //! aligned in 13 columns). Formatting dominates cube writing, so this avoids the
 //! general-purpose float formatter.
 
-/// Exact powers of ten representable in f64 (10^0 … 10^22).
-const POW10: [f64; 23] = [
-    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
-    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
-];
+use std::sync::LazyLock;
 
-/// Multiplies by 10^k, exactly for |k| ≤ 22 and to within rounding otherwise.
-fn scale10(x: f64, k: i32) -> f64 {
-    let mut x = x;
-    let mut k = k;
-    while k > 22 {
-        x *= 1e22;
-        k -= 22;
-    }
-    while k < -22 {
-        x /= 1e22;
-        k += 22;
-    }
-    if k >= 0 {
-        x * POW10[k as usize]
+/// Powers of ten 10^k for k in −350..=350, each the correctly rounded f64 (exact for
+/// 0 ≤ k ≤ 22), so that scaling is one multiplication or division.
+const POW_OFFSET: i32 = 350;
+static POW10: LazyLock<Vec<f64>> = LazyLock::new(|| {
+    (-POW_OFFSET..=POW_OFFSET)
+        .map(|k| format!("1e{k}").parse().expect("a power of ten parses"))
+        .collect()
+});
+
+/// x · 10^k. Positive k up to 22 multiply by an exact power; negative k divide by
+/// one, which keeps the result correctly rounded where possible.
+#[inline]
+fn scale10(x: f64, k: i32, pow: &[f64]) -> f64 {
+    if (0..=22).contains(&k) {
+        x * pow[(k + POW_OFFSET) as usize]
+    } else if (-22..0).contains(&k) {
+        x / pow[(POW_OFFSET - k) as usize]
+    } else if k > 0 {
+        // Beyond 10^22 split the factor so that neither part over- or underflows.
+        x * pow[(POW_OFFSET + k / 2) as usize] * pow[(POW_OFFSET + k - k / 2) as usize]
     } else {
-        x / POW10[(-k) as usize]
+        x / pow[(POW_OFFSET - k / 2) as usize] / pow[(POW_OFFSET - (k - k / 2)) as usize]
     }
 }
+
+/// Two-digit pairs "00" … "99" for fast integer output.
+const PAIRS: &[u8; 200] = b"0001020304050607080910111213141516171819\
+2021222324252627282930313233343536373839\
+4041424344454647484950515253545556575859\
+6061626364656667686970717273747576777879\
+8081828384858687888990919293949596979899";
 
 /// Appends `v` in `%13.5E` layout. Non-finite values are written as `NaN`/`Inf`
 /// right-aligned, which a strict reader will refuse, as it should.
@@ -47,44 +56,55 @@ pub fn push_e13(buf: &mut Vec<u8>, v: f64) {
         buf.extend_from_slice(b"  0.00000E+00");
         return;
     }
+    let pow: &[f64] = &POW10;
     let a = v.abs();
-    let mut e = a.log10().floor() as i32;
-    let mut m = scale10(a, 5 - e).round_ties_even() as u64;
-    if m >= 1_000_000 {
+    // floor(log10 a) from the binary exponent (log10 2 ≈ 78913 / 2^18), then one
+    // comparison against the table corrects the estimate.
+    let e2 = ((a.to_bits() >> 52) & 0x7ff) as i32 - 1023;
+    let mut e = (e2 * 78913) >> 18;
+    if e2 == -1023 {
+        e = a.log10().floor() as i32; // subnormal: rare, take the slow road
+    } else if e + 1 + POW_OFFSET < pow.len() as i32 && a >= pow[(e + 1 + POW_OFFSET) as usize] {
         e += 1;
-        m = scale10(a, 5 - e).round_ties_even() as u64;
-    } else if m < 100_000 {
-        e -= 1;
-        m = scale10(a, 5 - e).round_ties_even() as u64;
     }
+    let mut m = scale10(a, 5 - e, pow).round_ties_even() as u64;
     if m >= 1_000_000 {
         // 9.999995… rounds up to 10.00000: renormalise.
         e += 1;
-        m = 100_000;
+        m = scale10(a, 5 - e, pow).round_ties_even() as u64;
+    } else if m < 100_000 {
+        e -= 1;
+        m = scale10(a, 5 - e, pow).round_ties_even() as u64;
     }
-    let mut digits = [0u8; 6];
-    for d in digits.iter_mut().rev() {
-        *d = b'0' + (m % 10) as u8;
-        m /= 10;
-    }
-    let ae = e.unsigned_abs();
-    let exp_len = if ae >= 100 { 3 } else { 2 };
-    let len = 7 + 2 + exp_len; // d.ddddd, E and sign, exponent digits
-    let pad = 13usize.saturating_sub(len + usize::from(v < 0.0));
-    buf.extend(std::iter::repeat_n(b' ', pad));
-    if v < 0.0 {
-        buf.push(b'-');
-    }
-    buf.push(digits[0]);
-    buf.push(b'.');
-    buf.extend_from_slice(&digits[1..]);
-    buf.push(b'E');
-    buf.push(if e < 0 { b'-' } else { b'+' });
+    let mut out = [b' '; 14];
+    let ae = e.unsigned_abs() as usize;
+    // Right-align in 13 columns (14 when the exponent has three digits).
+    let width = if ae >= 100 { 14 } else { 13 };
+    let mut p = width;
+    p -= 2;
+    out[p..p + 2].copy_from_slice(&PAIRS[2 * (ae % 100)..2 * (ae % 100) + 2]);
     if ae >= 100 {
-        buf.push(b'0' + (ae / 100) as u8);
+        p -= 1;
+        out[p] = b'0' + (ae / 100) as u8;
     }
-    buf.push(b'0' + (ae / 10 % 10) as u8);
-    buf.push(b'0' + (ae % 10) as u8);
+    p -= 2;
+    out[p] = b'E';
+    out[p + 1] = if e < 0 { b'-' } else { b'+' };
+    let (hi, lo) = ((m / 10_000) as usize, (m % 10_000) as usize);
+    p -= 4;
+    out[p..p + 2].copy_from_slice(&PAIRS[2 * (lo / 100)..2 * (lo / 100) + 2]);
+    out[p + 2..p + 4].copy_from_slice(&PAIRS[2 * (lo % 100)..2 * (lo % 100) + 2]);
+    // hi is 10..99: the leading digit, the point, then the first decimal.
+    p -= 3;
+    out[p] = PAIRS[2 * hi];
+    out[p + 1] = b'.';
+    out[p + 2] = PAIRS[2 * hi + 1];
+    if v < 0.0 {
+        p -= 1;
+        out[p] = b'-';
+    }
+    let start = if width == 14 { p.min(1) } else { 0 };
+    buf.extend_from_slice(&out[start..width]);
 }
 
 #[cfg(test)]

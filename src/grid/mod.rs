@@ -55,6 +55,9 @@ impl GridBox {
                 )));
             }
         };
+        // The cube header prints six decimals; snapping spacing and origin to them
+        // makes the file describe exactly the points that were evaluated.
+        let h = snap(h).max(1e-6);
         let mut counts = [1usize; 3];
         let mut origin = [0.0; 3];
         let mut total: f64 = 1.0;
@@ -63,7 +66,7 @@ impl GridBox {
             total *= n;
             counts[d] = n as usize;
             let centre = 0.5 * (lo[d] + hi[d]);
-            origin[d] = centre - 0.5 * (n - 1.0) * h;
+            origin[d] = snap(centre - 0.5 * (n - 1.0) * h);
         }
         if total > MAX_POINTS as f64 {
             return Err(Error::input(format!(
@@ -109,6 +112,11 @@ impl GridBox {
             }
         }
     }
+}
+
+/// Rounds to the six decimals of the cube header.
+fn snap(x: f64) -> f64 {
+    (x * 1e6).round() / 1e6
 }
 
 #[cfg(test)]
