@@ -100,7 +100,7 @@ fn main() {
         bytes,
         "predicted size"
     );
-    let line = vec![b'7'; 79];
+    let line = [b'7'; 79];
     let plain = time(5, || {
         let mut w = BufWriter::with_capacity(1 << 20, std::fs::File::create(&path).unwrap());
         let mut left = bytes;
