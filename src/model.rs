@@ -14,21 +14,21 @@
 //! method = "one-electron"
 //! ```
 
-use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 
 use serde::Deserialize;
 
-use crate::basis::{Basis, BasisSetName};
+use crate::basis::{Basis, BasisSpec};
 use crate::chem::xyz::parse_xyz;
 use crate::chem::{Atom, LengthUnit, Molecule, elements};
 use crate::error::{Error, Result};
+use crate::solve::OrbitalSet;
 
 #[derive(Debug, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct ModelFile {
-    molecule: MoleculeSection,
-    basis: BasisSection,
+    molecule: Option<MoleculeSection>,
+    basis: Option<BasisSpec>,
     #[serde(default)]
     orbitals: OrbitalsSection,
 }
@@ -51,27 +51,24 @@ struct AtomEntry {
     position: [f64; 3],
 }
 
-#[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-struct BasisSection {
-    set: String,
-    #[serde(default)]
-    zeta: BTreeMap<String, f64>,
-}
-
 #[derive(Debug, Deserialize, Default)]
 #[serde(deny_unknown_fields)]
 struct OrbitalsSection {
     #[serde(default)]
     method: Method,
+    /// The orbital file, for `method = "file"`; relative to the model file.
+    path: Option<String>,
 }
 
 /// How the orbitals are obtained.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Default)]
 #[serde(rename_all = "kebab-case")]
 pub enum Method {
+    /// Solve H C = S C ε for one electron in the basis.
     #[default]
     OneElectron,
+    /// Take the orbitals from an orbital file as they are.
+    File,
 }
 
 /// A read and checked model.
@@ -79,77 +76,91 @@ pub enum Method {
 pub struct Model {
     pub path: PathBuf,
     pub molecule: Molecule,
+    /// The basis as the model asks for it (to rebuild it at other geometries);
+    /// `None` when the basis came from an orbital file.
+    pub spec: Option<BasisSpec>,
     pub basis: Basis,
     pub method: Method,
-    /// Every file the model was read from (the model itself and any XYZ file), so
-    /// that no output is ever written over one of them.
+    /// The orbitals, when they were read from a file rather than to be solved.
+    pub orbitals: Option<OrbitalSet>,
+    /// Every file the model was read from (the model itself, an XYZ or orbital
+    /// file), so that no output is ever written over one of them.
     pub inputs: Vec<PathBuf>,
 }
 
+/// Reads a model file (TOML) or, for a `.json` path, an orbital file directly.
 pub fn load(path: &Path) -> Result<Model> {
+    if path.extension().is_some_and(|e| e.eq_ignore_ascii_case("json")) {
+        return from_orbitals(path, vec![path.to_path_buf()]);
+    }
     let text = std::fs::read_to_string(path)
         .map_err(|e| Error::input(format!("cannot read model file {}: {e}", path.display())))?;
     parse(&text, path)
 }
 
-/// Parses model text; `path` names the file in errors and anchors a relative `xyz`.
+fn from_orbitals(file: &Path, inputs: Vec<PathBuf>) -> Result<Model> {
+    let set = crate::solve::orbital_file::read(file)?;
+    Ok(Model {
+        path: inputs[0].clone(),
+        molecule: set.molecule.clone(),
+        spec: None,
+        basis: set.basis.clone(),
+        method: Method::File,
+        orbitals: Some(set),
+        inputs,
+    })
+}
+
+/// Parses model text; `path` names the file in errors and anchors relative paths.
 pub fn parse(text: &str, path: &Path) -> Result<Model> {
     let name = path.display().to_string();
     let file: ModelFile = toml::from_str(text).map_err(|e| toml_error(&name, text, &e))?;
-    let m = file.molecule;
+    let folder = path.parent().unwrap_or(Path::new("."));
+    if file.orbitals.method == Method::File {
+        if file.molecule.is_some() || file.basis.is_some() {
+            return Err(Error::input(format!(
+                "{name}: with method = \"file\" the molecule and basis come from the orbital file; remove [molecule] and [basis]"
+            )));
+        }
+        let rel = file.orbitals.path.ok_or_else(|| Error::input(format!("{name}: [orbitals] method = \"file\" needs path = \"orbitals.json\"")))?;
+        let orbitals = folder.join(rel);
+        return from_orbitals(&orbitals, vec![path.to_path_buf(), orbitals.clone()]);
+    }
+    if file.orbitals.path.is_some() {
+        return Err(Error::input(format!("{name}: [orbitals] path is only used with method = \"file\"")));
+    }
+    let m = file.molecule.ok_or_else(|| Error::input(format!("{name}: the model needs a [molecule] section")))?;
+    let spec = file.basis.ok_or_else(|| Error::input(format!("{name}: the model needs a [basis] section")))?;
     let mut inputs = vec![path.to_path_buf()];
     let atoms = match (m.atoms, m.xyz) {
         (Some(_), Some(_)) => {
-            return Err(Error::input(format!(
-                "{name}: [molecule] gives both atoms and xyz; give one"
-            )));
+            return Err(Error::input(format!("{name}: [molecule] gives both atoms and xyz; give one")));
         }
         (None, None) => {
-            return Err(Error::input(format!(
-                "{name}: [molecule] needs atoms = [...] or xyz = \"file\""
-            )));
+            return Err(Error::input(format!("{name}: [molecule] needs atoms = [...] or xyz = \"file\"")));
         }
         (Some(list), None) => list
             .iter()
             .enumerate()
             .map(|(i, a)| {
                 let element = elements::by_symbol(&a.element).ok_or_else(|| {
-                    Error::input(format!(
-                        "{name}: atom {} has unknown element {:?}",
-                        i + 1,
-                        a.element
-                    ))
+                    Error::input(format!("{name}: atom {} has unknown element {:?}", i + 1, a.element))
                 })?;
-                Ok(Atom {
-                    element,
-                    position: a.position.map(|x| m.units.to_bohr(x)),
-                })
+                Ok(Atom { element, position: a.position.map(|x| m.units.to_bohr(x)) })
             })
             .collect::<Result<Vec<_>>>()?,
         (None, Some(xyz)) => {
-            let xyz_path = path.parent().unwrap_or(Path::new(".")).join(&xyz);
-            let text = std::fs::read_to_string(&xyz_path).map_err(|e| {
-                Error::input(format!(
-                    "{name}: cannot read xyz file {}: {e}",
-                    xyz_path.display()
-                ))
-            })?;
+            let xyz_path = folder.join(&xyz);
+            let text = std::fs::read_to_string(&xyz_path)
+                .map_err(|e| Error::input(format!("{name}: cannot read xyz file {}: {e}", xyz_path.display())))?;
             let frame = parse_xyz(&text, &xyz_path.display().to_string(), m.units)?;
             inputs.push(xyz_path);
             frame.atoms
         }
     };
-    let molecule = Molecule::new(atoms, m.charge)
-        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
-    let set = BasisSetName::parse(&file.basis.set)?;
-    let basis = Basis::build(set, &molecule, &file.basis.zeta)?;
-    Ok(Model {
-        path: path.to_path_buf(),
-        molecule,
-        basis,
-        method: file.orbitals.method,
-        inputs,
-    })
+    let molecule = Molecule::new(atoms, m.charge).map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    let basis = spec.build(&molecule)?;
+    Ok(Model { path: path.to_path_buf(), molecule, spec: Some(spec), basis, method: file.orbitals.method, orbitals: None, inputs })
 }
 
 /// One line: file, line number, and TOML's own message (which names the key).
@@ -180,8 +191,8 @@ mod tests {
         assert_eq!(m.molecule.atoms.len(), 2);
         assert_eq!(m.molecule.atoms[1].position[2], 1.0);
         assert_eq!(m.molecule.electron_count(), 1);
-        assert_eq!(m.basis.functions.len(), 2);
-        assert_eq!(m.basis.functions[1].label(), "1s(ζ=1.200)");
+        assert_eq!(m.basis.len(), 2);
+        assert_eq!(m.basis.shells[1].label(0), "1s(ζ=1.200)");
     }
 
     #[test]

@@ -1,126 +1,112 @@
-//! Atom-centred basis functions and the named sets that place them on a molecule.
-//! Nothing here solves anything: a `Basis` is plain data that integrals, solvers and
-//! grid evaluation read.
+//! Atom-centred basis functions, grouped in shells, and the named sets that place
+//! them on a molecule. Nothing here solves anything: a `Basis` is plain data that
+//! integrals, solvers and grid evaluation read shell by shell.
 
+pub mod gaussian;
+pub mod harmonics;
+pub mod named;
+pub mod sets;
 pub mod slater;
 
-use std::collections::BTreeMap;
+pub use gaussian::{Angular, GaussianShell};
+pub use sets::BasisSpec;
+pub use slater::SlaterShell;
 
-pub use slater::Slater1s;
-
-use crate::chem::Molecule;
-use crate::error::{Error, Result};
-
-/// One basis function. An enum (not a trait object) so that the grid hot path can
-/// dispatch without virtual calls and the orbital file can name each kind.
+/// A group of functions on one centre that share their radial part. An enum, not a
+/// trait object, so the grid hot path dispatches without virtual calls.
 #[derive(Debug, Clone, PartialEq)]
-pub enum BasisFunction {
-    Slater1s(Slater1s),
+pub enum Shell {
+    Slater(SlaterShell),
+    Gaussian(GaussianShell),
 }
 
-impl BasisFunction {
+impl Shell {
     pub fn atom(&self) -> usize {
         match self {
-            BasisFunction::Slater1s(f) => f.atom,
+            Shell::Slater(s) => s.atom,
+            Shell::Gaussian(g) => g.atom,
         }
     }
 
-    /// Short label such as "1s(ζ=1.000)" for tables.
-    pub fn label(&self) -> String {
+    pub fn center(&self) -> [f64; 3] {
         match self {
-            BasisFunction::Slater1s(f) => format!("1s(ζ={:.3})", f.zeta),
+            Shell::Slater(s) => s.center,
+            Shell::Gaussian(g) => g.center,
         }
     }
 
-    pub fn value(&self, p: [f64; 3]) -> f64 {
+    pub fn len(&self) -> usize {
         match self {
-            BasisFunction::Slater1s(f) => f.value(p),
+            Shell::Slater(s) => s.len(),
+            Shell::Gaussian(g) => g.len(),
         }
     }
 
+    pub fn is_empty(&self) -> bool {
+        self.len() == 0
+    }
+
+    /// Short label of function `k` of the shell, e.g. "1s(ζ=1.000)", "2px", "d(xy)".
+    pub fn label(&self, k: usize) -> String {
+        match self {
+            Shell::Slater(s) => {
+                let h = harmonics::harmonic_name(s.l, s.ms[k]);
+                let h = if s.l == 0 { String::from("s") } else { h.to_string() };
+                format!("{}{}(ζ={:.3})", s.n, h, s.zeta)
+            }
+            Shell::Gaussian(g) => match g.functions[k] {
+                Angular::Pure(m) => format!("G{}", harmonics::harmonic_name(g.l, m)),
+                Angular::Cartesian(p) => format!("G{}", harmonics::cartesian_name(p)),
+            },
+        }
+    }
+
+    /// Values of the shell's functions at points (functions × points).
     pub fn values(&self, points: &[[f64; 3]], out: &mut [f64]) {
         match self {
-            BasisFunction::Slater1s(f) => f.values(points, out),
-        }
-    }
-}
-
-/// The named basis sets lobecast knows.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum BasisSetName {
-    /// One 1s Slater function per atom; ζ per element, default ζ = Z.
-    Slater1s,
-}
-
-impl BasisSetName {
-    pub fn parse(name: &str) -> Result<Self> {
-        match name.to_ascii_lowercase().as_str() {
-            "slater-1s" => Ok(BasisSetName::Slater1s),
-            other => Err(Error::input(format!("unknown basis set {other:?}"))
-                .with_hint("the basis sets available are: slater-1s")),
-        }
-    }
-
-    pub fn as_str(self) -> &'static str {
-        match self {
-            BasisSetName::Slater1s => "slater-1s",
+            Shell::Slater(s) => s.values(points, out),
+            Shell::Gaussian(g) => g.values(points, out),
         }
     }
 }
 
 #[derive(Debug, Clone, PartialEq)]
 pub struct Basis {
-    pub name: BasisSetName,
-    pub functions: Vec<BasisFunction>,
+    /// The set's name as the user gave it, e.g. "sto-3g".
+    pub name: String,
+    pub shells: Vec<Shell>,
 }
 
 impl Basis {
-    /// Places the named set on every atom. `zeta` overrides the exponent per element
-    /// symbol (exact case as in the element table).
-    pub fn build(
-        name: BasisSetName,
-        molecule: &Molecule,
-        zeta: &BTreeMap<String, f64>,
-    ) -> Result<Self> {
-        for (symbol, z) in zeta {
-            if crate::chem::elements::by_symbol(symbol).is_none() {
-                return Err(Error::input(format!(
-                    "[basis] zeta names an unknown element {symbol:?}"
-                )));
-            }
-            if !(z.is_finite() && *z > 0.0) {
-                return Err(Error::input(format!(
-                    "[basis] zeta for {symbol} must be a positive number, got {z}"
-                )));
-            }
-        }
-        let functions = match name {
-            BasisSetName::Slater1s => molecule
-                .atoms
-                .iter()
-                .enumerate()
-                .map(|(i, a)| {
-                    let z = zeta
-                        .iter()
-                        .find(|(s, _)| s.eq_ignore_ascii_case(a.element.symbol))
-                        .map(|(_, z)| *z)
-                        .unwrap_or(a.charge());
-                    BasisFunction::Slater1s(Slater1s {
-                        atom: i,
-                        center: a.position,
-                        zeta: z,
-                    })
-                })
-                .collect(),
-        };
-        Ok(Basis { name, functions })
-    }
-
+    /// Number of basis functions.
     pub fn len(&self) -> usize {
-        self.functions.len()
+        self.shells.iter().map(Shell::len).sum()
     }
 
     pub fn is_empty(&self) -> bool {
-        self.functions.is_empty()
+        self.len() == 0
+    }
+
+    /// Index of the first function of each shell.
+    pub fn offsets(&self) -> Vec<usize> {
+        let mut at = 0;
+        self.shells
+            .iter()
+            .map(|s| {
+                let o = at;
+                at += s.len();
+                o
+            })
+            .collect()
+    }
+
+    /// (atom, label) of every function, in basis order.
+    pub fn function_labels(&self) -> Vec<(usize, String)> {
+        self.shells.iter().flat_map(|s| (0..s.len()).map(move |k| (s.atom(), s.label(k)))).collect()
+    }
+
+    /// Whether every shell is Gaussian (analytic integrals exist for any geometry).
+    pub fn all_gaussian(&self) -> bool {
+        self.shells.iter().all(|s| matches!(s, Shell::Gaussian(_)))
     }
 }

@@ -3,6 +3,7 @@
 
 mod common;
 mod curve;
+mod curve_report;
 mod solve;
 mod volume;
 

@@ -11,12 +11,18 @@ use crate::solve::{OrbitalSet, orbitals_for};
 
 #[derive(Debug, Args)]
 pub struct SolveArgs {
-    /// Model file (TOML)
+    /// Model file (TOML) or orbital file (.json)
     pub model: PathBuf,
+    /// Write the orbitals as an orbital file (JSON, bohr and hartree)
+    #[arg(long, value_name = "FILE")]
+    pub json: Option<PathBuf>,
 }
 
 pub fn run(args: SolveArgs) -> Result<()> {
     let model = load_model(&args.model)?;
+    if let Some(path) = &args.json {
+        crate::output::check_not_input(path, &model.inputs)?;
+    }
     let set = orbitals_for(&model)?;
     println!(
         "lobecast solve: {} from {}, {}, {} electron(s); energies include the nuclear repulsion {:.8} hartree",
@@ -28,6 +34,10 @@ pub fn run(args: SolveArgs) -> Result<()> {
     );
     print!("{}", table(&set));
     print_notes(&set.notes);
+    if let Some(path) = &args.json {
+        crate::output::write_bytes(path, &model.inputs, crate::solve::orbital_file::to_json(&set).as_bytes())?;
+        eprintln!("wrote {}", path.display());
+    }
     Ok(())
 }
 
@@ -52,28 +62,17 @@ fn table(set: &OrbitalSet) -> String {
 /// The biggest few coefficients with their atoms and functions, e.g.
 /// "H1 1s(ζ=1.000) +0.5480, H2 1s(ζ=1.000) −0.5480".
 fn character(set: &OrbitalSet, c: &[f64]) -> String {
+    let labels = set.basis.function_labels();
     let mut order: Vec<usize> = (0..c.len()).collect();
     // Equal magnitudes (to 1e-9) keep basis order, so symmetric orbitals read A then B.
-    order.sort_by(|&a, &b| {
-        ((c[b].abs() - c[a].abs()) / 1e-9)
-            .round()
-            .total_cmp(&0.0)
-            .then(a.cmp(&b))
-    });
+    order.sort_by_key(|&m| (-(c[m].abs() * 1e9).round() as i64, m));
     order
         .iter()
         .take(4)
         .filter(|&&m| c[m].abs() > 1e-3)
         .map(|&m| {
-            let f = &set.basis.functions[m];
-            let atom = f.atom();
-            format!(
-                "{}{} {} {:+.4}",
-                set.molecule.atoms[atom].element.symbol,
-                atom + 1,
-                f.label(),
-                c[m]
-            )
+            let (atom, label) = &labels[m];
+            format!("{}{} {label} {:+.4}", set.molecule.atoms[*atom].element.symbol, atom + 1, c[m])
         })
         .collect::<Vec<_>>()
         .join(", ")

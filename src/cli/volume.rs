@@ -122,7 +122,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let bar = progress_bar(&grid);
     {
         let mut w = BufWriter::with_capacity(1 << 20, out.file());
-        write_streaming(&header, |p, v| sampler.evaluate(p, v), &mut w, &|done| {
+        write_streaming(&header, |s, v| sampler.evaluate_slab(s, v), &mut w, &|done| {
             bar.set_position(done as u64)
         })?;
     }

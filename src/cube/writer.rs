@@ -5,7 +5,7 @@ use std::io::Write;
 
 use super::format::push_e13;
 use crate::error::{Error, Result};
-use crate::grid::{GridBox, stream_slabs};
+use crate::grid::{GridBox, Slab, stream_slabs};
 
 /// Values on one line, as is usual for the layout.
 pub const PER_LINE: usize = 6;
@@ -47,7 +47,13 @@ impl CubeHeader {
         } else {
             n
         };
-        t += &format!("{count:5}{:12.6}{:12.6}{:12.6}\n", o[0], o[1], o[2]);
+        t += &format!("{count:5}{:12.6}{:12.6}{:12.6}", o[0], o[1], o[2]);
+        // Several fields: also the optional value-count column, which readers such as
+        // ASE use to know how many values each point holds.
+        if self.orbital_numbers.is_some() {
+            t += &format!("{:5}", self.field_count());
+        }
+        t += "\n";
         for (c, a) in self.grid.counts.iter().zip(&self.grid.axes) {
             t += &format!("{c:5}{:12.6}{:12.6}{:12.6}\n", a[0], a[1], a[2]);
         }
@@ -105,7 +111,7 @@ pub fn write_streaming<W, E>(
 ) -> Result<()>
 where
     W: Write,
-    E: Fn(&[[f64; 3]], &mut [f64]) + Sync,
+    E: Fn(&Slab, &mut [f64]) + Sync,
 {
     let io = |e: std::io::Error| Error::internal(format!("writing the cube file failed: {e}"));
     out.write_all(header.text().as_bytes()).map_err(io)?;

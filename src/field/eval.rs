@@ -2,8 +2,9 @@
 //! by every requested field, so a cube with several fields costs little more than one.
 
 use super::Field;
-use crate::basis::BasisFunction;
+use crate::basis::Shell;
 use crate::error::Result;
+use crate::grid::Slab;
 use crate::solve::OrbitalSet;
 
 #[derive(Debug, Clone)]
@@ -20,7 +21,9 @@ enum Resolved {
 /// interleaved: for each point, the value of every field in order.
 #[derive(Debug, Clone)]
 pub struct FieldSampler {
-    functions: Vec<BasisFunction>,
+    shells: Vec<Shell>,
+    offsets: Vec<usize>,
+    nbf: usize,
     fields: Vec<Resolved>,
 }
 
@@ -31,18 +34,13 @@ impl FieldSampler {
         let mut resolved = Vec::with_capacity(fields.len());
         for f in fields {
             let index = f.selector().map(|s| s.resolve(&set.orbitals)).transpose()?;
-            let coeffs = || {
-                set.orbitals[index.expect("orbital field")]
-                    .coefficients
-                    .clone()
-            };
+            let coeffs = || set.orbitals[index.expect("orbital field")].coefficients.clone();
             resolved.push(match f {
                 Field::Orbital(_) => Resolved::Orbital(coeffs()),
                 Field::OrbitalDensity(_) => Resolved::OrbitalDensity(coeffs()),
-                Field::OrbitalDeformation(_) => Resolved::OrbitalDeformation(
-                    coeffs(),
-                    set.gross_populations(index.expect("orbital field")),
-                ),
+                Field::OrbitalDeformation(_) => {
+                    Resolved::OrbitalDeformation(coeffs(), set.gross_populations(index.expect("orbital field"))?)
+                }
                 Field::Density => Resolved::Density(
                     set.orbitals
                         .iter()
@@ -53,7 +51,9 @@ impl FieldSampler {
             });
         }
         Ok(FieldSampler {
-            functions: set.basis.functions.clone(),
+            shells: set.basis.shells.clone(),
+            offsets: set.basis.offsets(),
+            nbf: set.basis.len(),
             fields: resolved,
         })
     }
@@ -62,46 +62,61 @@ impl FieldSampler {
         self.fields.len()
     }
 
-    /// Fills `out` (length points × fields) with the interleaved values.
+    /// Fills `out` (points × fields) with the interleaved values at arbitrary points.
     pub fn evaluate(&self, points: &[[f64; 3]], out: &mut [f64]) {
         let n = points.len();
-        let nf = self.fields.len();
-        assert_eq!(
-            out.len(),
-            n * nf,
-            "output buffer must hold points × fields values"
-        );
-        let mut phi = vec![0.0; n * self.functions.len()];
-        for (f, chunk) in self.functions.iter().zip(phi.chunks_exact_mut(n)) {
-            f.values(points, chunk);
+        let mut phi = vec![0.0; n * self.nbf];
+        for (shell, &o) in self.shells.iter().zip(&self.offsets) {
+            shell.values(points, &mut phi[o * n..(o + shell.len()) * n]);
         }
+        self.combine_fields(&phi, n, out);
+    }
+
+    /// Like `evaluate` on a grid slab; Gaussian shells use the separable lattice
+    /// evaluation when the slab is axis-aligned.
+    pub fn evaluate_slab(&self, slab: &Slab, out: &mut [f64]) {
+        let Some((x, ys, zs)) = slab.lattice else {
+            return self.evaluate(slab.points, out);
+        };
+        let n = slab.points.len();
+        let mut phi = vec![0.0; n * self.nbf];
+        for (shell, &o) in self.shells.iter().zip(&self.offsets) {
+            let dst = &mut phi[o * n..(o + shell.len()) * n];
+            match shell {
+                Shell::Gaussian(g) => g.values_lattice(x, ys, zs, dst),
+                Shell::Slater(_) => shell.values(slab.points, dst),
+            }
+        }
+        self.combine_fields(&phi, n, out);
+    }
+
+    /// From basis values (functions × points) to the interleaved field values.
+    fn combine_fields(&self, phi: &[f64], n: usize, out: &mut [f64]) {
+        let nf = self.fields.len();
+        assert_eq!(out.len(), n * nf, "output buffer must hold points × fields values");
         let mut psi = vec![0.0; n];
         for (k, field) in self.fields.iter().enumerate() {
             match field {
                 Resolved::Orbital(c) => {
-                    combine(&phi, c, n, &mut psi);
+                    combine(phi, c, n, &mut psi);
                     scatter(out, nf, k, psi.iter().copied());
                 }
                 Resolved::OrbitalDensity(c) => {
-                    combine(&phi, c, n, &mut psi);
+                    combine(phi, c, n, &mut psi);
                     scatter(out, nf, k, psi.iter().map(|v| v * v));
                 }
                 Resolved::OrbitalDeformation(c, q) => {
-                    combine(&phi, c, n, &mut psi);
-                    for (p, row) in psi.iter_mut().enumerate() {
-                        let atomic: f64 = q
-                            .iter()
-                            .enumerate()
-                            .map(|(m, qm)| qm * phi[m * n + p].powi(2))
-                            .sum();
-                        *row = *row * *row - atomic;
+                    combine(phi, c, n, &mut psi);
+                    for (p, v) in psi.iter_mut().enumerate() {
+                        let atomic: f64 = q.iter().enumerate().map(|(m, qm)| qm * phi[m * n + p] * phi[m * n + p]).sum();
+                        *v = *v * *v - atomic;
                     }
                     scatter(out, nf, k, psi.iter().copied());
                 }
                 Resolved::Density(list) => {
                     let mut rho = vec![0.0; n];
                     for (occ, c) in list {
-                        combine(&phi, c, n, &mut psi);
+                        combine(phi, c, n, &mut psi);
                         for (r, v) in rho.iter_mut().zip(&psi) {
                             *r += occ * v * v;
                         }

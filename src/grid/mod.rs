@@ -3,7 +3,7 @@
 
 mod sampler;
 
-pub use sampler::{sample_all, stream_slabs};
+pub use sampler::{Slab, sample_all, stream_slabs};
 
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
@@ -79,6 +79,12 @@ impl GridBox {
             axes,
             counts,
         })
+    }
+
+    /// Whether the axes run along x, y and z in that order (then slabs are lattices).
+    pub fn is_axis_aligned(&self) -> bool {
+        let [a, b, c] = self.axes;
+        a[1] == 0.0 && a[2] == 0.0 && b[0] == 0.0 && b[2] == 0.0 && c[0] == 0.0 && c[1] == 0.0
     }
 
     pub fn point_count(&self) -> usize {

@@ -119,3 +119,69 @@ pub fn equilibrium(z: f64, choice: ZetaChoice, points: &[CurvePoint]) -> Option<
 pub fn separated_limit(z: f64) -> f64 {
     -0.5 * z * z
 }
+
+/// Energies of the lowest states at one separation, for any basis.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StatesPoint {
+    pub r: f64,
+    pub energies: Vec<f64>,
+}
+
+/// The two-atom molecule of `template` moved to separation `r` along its own bond
+/// axis, about the same midpoint.
+pub fn at_separation(template: &crate::chem::Molecule, r: f64) -> Result<crate::chem::Molecule> {
+    let (a, b) = (&template.atoms[0], &template.atoms[1]);
+    let d: [f64; 3] = std::array::from_fn(|k| b.position[k] - a.position[k]);
+    let len = (d[0] * d[0] + d[1] * d[1] + d[2] * d[2]).sqrt();
+    let mid: [f64; 3] = std::array::from_fn(|k| 0.5 * (a.position[k] + b.position[k]));
+    let u = d.map(|x| x / len);
+    let mut atoms = template.atoms.clone();
+    atoms[0].position = std::array::from_fn(|k| mid[k] - 0.5 * r * u[k]);
+    atoms[1].position = std::array::from_fn(|k| mid[k] + 0.5 * r * u[k]);
+    crate::chem::Molecule::new(atoms, template.charge)
+}
+
+/// The `states` lowest one-electron energies at separation `r` in the basis `spec`.
+pub fn states_at(template: &crate::chem::Molecule, spec: &crate::basis::BasisSpec, r: f64, states: usize) -> Result<Vec<f64>> {
+    let molecule = at_separation(template, r)?;
+    let basis = spec.build(&molecule)?;
+    let set = super::one_electron::solve(&molecule, &basis)?;
+    if set.orbitals.len() < states {
+        return Err(Error::input(format!("--states {states} asks for more states than the basis has functions ({})", set.orbitals.len())));
+    }
+    Ok(set.orbitals.iter().take(states).map(|o| o.energy).collect())
+}
+
+/// Scans the lowest `states` energies over `rs` (in parallel: each R is a full solve).
+pub fn scan_states(template: &crate::chem::Molecule, spec: &crate::basis::BasisSpec, rs: &[f64], states: usize) -> Result<Vec<StatesPoint>> {
+    use rayon::prelude::*;
+    rs.par_iter().map(|&r| Ok(StatesPoint { r, energies: states_at(template, spec, r, states)? })).collect()
+}
+
+/// The minimum of the lowest state, refined between the samples either side of the
+/// lowest one; `None` when the scan does not bracket it.
+pub fn states_equilibrium(template: &crate::chem::Molecule, spec: &crate::basis::BasisSpec, points: &[StatesPoint]) -> Result<Option<(f64, f64)>> {
+    let Some(best) = (0..points.len()).min_by(|&a, &b| points[a].energies[0].total_cmp(&points[b].energies[0])) else {
+        return Ok(None);
+    };
+    if best == 0 || best + 1 == points.len() {
+        return Ok(None);
+    }
+    let mut failure = None;
+    let (r, e) = minimize(
+        |r| match states_at(template, spec, r, 1) {
+            Ok(e) => e[0],
+            Err(err) => {
+                failure = Some(err);
+                f64::INFINITY
+            }
+        },
+        points[best - 1].r,
+        points[best + 1].r,
+        TOLERANCE,
+    );
+    match failure {
+        Some(err) => Err(err),
+        None => Ok(Some((r, e))),
+    }
+}

@@ -5,6 +5,7 @@ pub mod brent;
 pub mod curve;
 pub mod eigen;
 pub mod one_electron;
+pub mod orbital_file;
 pub mod orbitals;
 
 pub use orbitals::{Orbital, OrbitalSelector, OrbitalSet};
@@ -14,7 +15,9 @@ use crate::model::{Method, Model};
 
 /// Obtains the orbitals a model asks for.
 pub fn orbitals_for(model: &Model) -> Result<OrbitalSet> {
-    match model.method {
-        Method::OneElectron => one_electron::solve(&model.molecule, &model.basis),
+    match (model.method, &model.orbitals) {
+        (Method::OneElectron, _) => one_electron::solve(&model.molecule, &model.basis),
+        (Method::File, Some(set)) => Ok(set.clone()),
+        (Method::File, None) => Err(crate::error::Error::internal("a file model without its orbitals")),
     }
 }

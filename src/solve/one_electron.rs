@@ -2,15 +2,15 @@
 
 use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
 use super::orbitals::{Orbital, OrbitalSet, aufbau};
-use crate::basis::{Basis, BasisSetName};
+use crate::basis::Basis;
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
-use crate::integrals::slater_1s_matrices;
+use crate::integrals::{gaussian_matrices, slater_1s_matrices};
 
 /// Said with every minimal-basis result, because such numbers are easily over-read.
-pub const MINIMAL_BASIS_CAVEAT: &str = "minimal basis (one 1s function per nucleus): the \
-    energies are variational upper bounds and the bond is too weak; use them for \
-    pictures and trends, not as quantitative energies";
+pub const MINIMAL_BASIS_CAVEAT: &str = "minimal basis (one function per occupied atomic \
+    shell): the energies are variational upper bounds and bonds come out too weak; use \
+    them for pictures and trends, not as quantitative energies";
 
 pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
     let electrons = molecule.electron_count();
@@ -20,11 +20,9 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
             molecule.formula(),
             molecule.charge
         ))
-        .with_hint("set [molecule] charge so that nuclear charges minus charge = 1"));
+        .with_hint("for more electrons use [orbitals] method = \"file\" with orbitals from another program (or extended Hückel once available); for one electron set charge so that nuclear charges minus charge = 1"));
     }
-    let matrices = match basis.name {
-        BasisSetName::Slater1s => slater_1s_matrices(molecule, basis)?,
-    };
+    let matrices = if basis.all_gaussian() { gaussian_matrices(molecule, basis)? } else { slater_1s_matrices(molecule, basis)? };
     let eigen = generalized_symmetric(
         &matrices.hamiltonian,
         &matrices.overlap,
@@ -42,7 +40,8 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
             coefficients: eigen.vectors.column(i).iter().copied().collect(),
         })
         .collect();
-    let mut notes = vec![MINIMAL_BASIS_CAVEAT.to_string()];
+    let minimal = basis.name == "slater-1s" || basis.name.starts_with("sto-");
+    let mut notes = if minimal { vec![MINIMAL_BASIS_CAVEAT.to_string()] } else { Vec::new() };
     if eigen.dropped > 0 {
         notes.push(format!(
             "{} near-linear-dependent combination(s) of the basis were dropped",
@@ -52,9 +51,9 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
     Ok(OrbitalSet {
         molecule: molecule.clone(),
         basis: basis.clone(),
-        overlap: matrices.overlap,
+        overlap: Some(matrices.overlap),
         orbitals,
-        method: format!("one-electron, {}", basis.name.as_str()),
+        method: format!("one-electron, {}", basis.name),
         notes,
     })
 }

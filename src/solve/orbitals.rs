@@ -26,8 +26,9 @@ pub struct Orbital {
 pub struct OrbitalSet {
     pub molecule: Molecule,
     pub basis: Basis,
-    /// Overlap matrix of the basis (for Mulliken populations).
-    pub overlap: DMatrix<f64>,
+    /// Overlap matrix of the basis (for Mulliken populations), where lobecast can
+    /// compute it.
+    pub overlap: Option<DMatrix<f64>>,
     /// Sorted by increasing energy.
     pub orbitals: Vec<Orbital>,
     /// How the orbitals were obtained, e.g. "one-electron, slater-1s".
@@ -40,15 +41,15 @@ pub struct OrbitalSet {
 impl OrbitalSet {
     /// Mulliken gross populations of one orbital per basis function,
     /// q_μ = c_μ Σ_ν S_μν c_ν; they sum to cᵀSc (1 for a normalised orbital).
-    pub fn gross_populations(&self, index: usize) -> Vec<f64> {
+    pub fn gross_populations(&self, index: usize) -> Result<Vec<f64>> {
+        let s = self.overlap.as_ref().ok_or_else(|| {
+            Error::input(
+                "Mulliken populations need the overlap matrix, which lobecast computes for Gaussian \
+                 functions and for 1s Slater functions of equal exponent",
+            )
+        })?;
         let c = &self.orbitals[index].coefficients;
-        (0..c.len())
-            .map(|m| {
-                c[m] * (0..c.len())
-                    .map(|n| self.overlap[(m, n)] * c[n])
-                    .sum::<f64>()
-            })
-            .collect()
+        Ok((0..c.len()).map(|m| c[m] * (0..c.len()).map(|n| s[(m, n)] * c[n]).sum::<f64>()).collect())
     }
 }
 

@@ -1,0 +1,215 @@
+//! Contracted Gaussian shells: Cartesian (each component x^a y^b z^c e^(−αr²)
+//! normalised as it stands) or pure (real solid harmonics), contraction coefficients
+//! multiplying normalised primitives, and the contracted function renormalised to 1.
+//!
+//! Internally a shell is Σ_k d_k e^(−α_k r²) times, for each of its functions, a fixed
+//! combination of the Cartesian monomials of degree l (`rows`). The d_k fold in the
+//! radial normalisation (2α/π)^(3/4) (4α)^(l/2) shared by every component; the rows
+//! carry the α-independent angular factors. Integrals and grid evaluation both work
+//! on this form, shell by shell.
+
+use super::harmonics::{cartesian_components, double_factorial_odd, solid_harmonic};
+use crate::error::{Error, Result};
+use std::f64::consts::PI;
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Angular {
+    /// Cartesian component with these powers.
+    Cartesian([u32; 3]),
+    /// Real solid harmonic of this m.
+    Pure(i32),
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct GaussianShell {
+    pub atom: usize,
+    pub center: [f64; 3],
+    pub l: u32,
+    /// (exponent, coefficient of the normalised primitive) as given by the basis set.
+    pub primitives: Vec<(f64, f64)>,
+    /// The exponents alone, for the integral engine.
+    pub exponents: Vec<f64>,
+    /// The functions this shell contributes, in order.
+    pub functions: Vec<Angular>,
+    /// Scaled contraction coefficients d_k (see the module doc).
+    pub d: Vec<f64>,
+    /// One row per function over `cartesian_components(l)`.
+    pub rows: Vec<Vec<f64>>,
+}
+
+/// (2α/π)^(3/4) (4α)^(l/2): the α-dependent factor of a normalised Cartesian primitive.
+fn radial_norm(alpha: f64, l: u32) -> f64 {
+    (2.0 * alpha / PI).powf(0.75) * (4.0 * alpha).powf(0.5 * l as f64)
+}
+
+/// Ratio of the pure normalisation sqrt(2(2α)^(l+3/2)/Γ(l+3/2)) to `radial_norm`,
+/// which does not depend on α.
+fn pure_factor(l: u32) -> f64 {
+    let gamma = double_factorial_odd(l + 1) * PI.sqrt() / 2f64.powi(l as i32 + 1);
+    (2.0 * 2f64.powf(l as f64 + 1.5) / gamma).sqrt() / radial_norm(1.0, l)
+}
+
+impl GaussianShell {
+    /// Builds a shell. `functions` lists which components it carries; every one must
+    /// have angular momentum `l`.
+    pub fn new(atom: usize, center: [f64; 3], l: u32, primitives: Vec<(f64, f64)>, functions: Vec<Angular>) -> Result<Self> {
+        if l > super::harmonics::L_MAX {
+            return Err(Error::input(format!("Gaussian functions up to l = 3 are supported, got l = {l}")));
+        }
+        if primitives.is_empty() {
+            return Err(Error::input("a Gaussian function needs at least one primitive"));
+        }
+        for (a, c) in &primitives {
+            if !(a.is_finite() && *a > 0.0) {
+                return Err(Error::input(format!("Gaussian exponents must be positive, got {a}")));
+            }
+            if !c.is_finite() {
+                return Err(Error::input(format!("contraction coefficient {c} is not finite")));
+            }
+        }
+        let comps = cartesian_components(l);
+        let mut rows = Vec::with_capacity(functions.len());
+        for f in &functions {
+            let mut row = vec![0.0; comps.len()];
+            match *f {
+                Angular::Cartesian(p) => {
+                    if p.iter().sum::<u32>() != l {
+                        return Err(Error::input(format!("powers {p:?} do not sum to l = {l}")));
+                    }
+                    let i = comps.iter().position(|c| *c == p).expect("components cover every power triple");
+                    row[i] = 1.0 / (double_factorial_odd(p[0]) * double_factorial_odd(p[1]) * double_factorial_odd(p[2])).sqrt();
+                }
+                Angular::Pure(m) => {
+                    let poly = solid_harmonic(l, m)
+                        .ok_or_else(|| Error::input(format!("m = {m} is out of range for l = {l}")))?;
+                    for (c, p) in poly {
+                        let i = comps.iter().position(|q| *q == p).expect("harmonic terms have degree l");
+                        row[i] += c * pure_factor(l);
+                    }
+                }
+            }
+            rows.push(row);
+        }
+        // Self-overlap of the contraction of normalised primitives; the same for every
+        // component of the shell.
+        let e = l as f64 + 1.5;
+        let mut self_overlap = 0.0;
+        for (ai, ci) in &primitives {
+            for (aj, cj) in &primitives {
+                self_overlap += ci * cj * (2.0 * (ai * aj).sqrt() / (ai + aj)).powf(e);
+            }
+        }
+        if self_overlap.is_nan() || self_overlap <= 0.0 {
+            return Err(Error::input("the contraction coefficients give a function of zero norm"));
+        }
+        let renorm = 1.0 / self_overlap.sqrt();
+        let d = primitives.iter().map(|(a, c)| c * radial_norm(*a, l) * renorm).collect();
+        let exponents = primitives.iter().map(|p| p.0).collect();
+        Ok(GaussianShell { atom, center, l, primitives, exponents, functions, d, rows })
+    }
+
+    /// Every function of angular momentum l: pure (2l+1) or Cartesian ((l+1)(l+2)/2).
+    pub fn full(atom: usize, center: [f64; 3], l: u32, primitives: Vec<(f64, f64)>, pure: bool) -> Result<Self> {
+        let functions = if pure {
+            (-(l as i32)..=l as i32).map(Angular::Pure).collect()
+        } else {
+            cartesian_components(l).into_iter().map(Angular::Cartesian).collect()
+        };
+        Self::new(atom, center, l, primitives, functions)
+    }
+
+    pub fn len(&self) -> usize {
+        self.functions.len()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.functions.is_empty()
+    }
+
+    /// Values of every function at every point, direct evaluation; `out` is
+    /// functions × points (function-major).
+    pub fn values(&self, points: &[[f64; 3]], out: &mut [f64]) {
+        let n = points.len();
+        let comps = cartesian_components(self.l);
+        let mut mono = vec![0.0; comps.len()];
+        for (p, pt) in points.iter().enumerate() {
+            let (x, y, z) = (pt[0] - self.center[0], pt[1] - self.center[1], pt[2] - self.center[2]);
+            let r2 = x * x + y * y + z * z;
+            let radial: f64 = self.primitives.iter().zip(&self.d).map(|((a, _), d)| d * (-a * r2).exp()).sum();
+            for (m, c) in mono.iter_mut().zip(&comps) {
+                *m = x.powi(c[0] as i32) * y.powi(c[1] as i32) * z.powi(c[2] as i32);
+            }
+            for (f, row) in self.rows.iter().enumerate() {
+                out[f * n + p] = radial * row.iter().zip(&mono).map(|(r, m)| r * m).sum::<f64>();
+            }
+        }
+    }
+}
+
+/// Contributions below this (absolute, for functions normalised to 1) are skipped on
+/// a slab or a line; far below the 1e-5 printed precision of a cube file.
+pub const SCREEN: f64 = 1e-17;
+
+impl GaussianShell {
+    /// Values on a slab of an axis-aligned lattice (x fixed; all y × z, z fastest),
+    /// using separability: e^(−αr²) = e^(−αx²) e^(−αy²) e^(−αz²), so each primitive
+    /// needs only ny + nz exponentials per slab instead of ny × nz. Primitives and
+    /// lines whose contribution is below `SCREEN` are skipped. `out` is
+    /// functions × (ny·nz), overwritten.
+    pub fn values_lattice(&self, x: f64, ys: &[f64], zs: &[f64], out: &mut [f64]) {
+        let (ny, nz) = (ys.len(), zs.len());
+        let n = ny * nz;
+        out[..self.len() * n].fill(0.0);
+        let l = self.l as usize;
+        let comps = cartesian_components(self.l);
+        let dx = x - self.center[0];
+        let mut ytab = vec![0.0; (l + 1) * ny];
+        let mut ztab = vec![0.0; (l + 1) * nz];
+        for ((alpha, _), d) in self.primitives.iter().zip(&self.d) {
+            let ex = d * (-alpha * dx * dx).exp();
+            let xpow: Vec<f64> = (0..=l).map(|a| ex * dx.powi(a as i32)).collect();
+            let xmax = xpow.iter().fold(0.0f64, |m, v| m.max(v.abs()));
+            if xmax < SCREEN {
+                continue;
+            }
+            fill_axis(&mut ytab, ys, self.center[1], *alpha, l);
+            fill_axis(&mut ztab, zs, self.center[2], *alpha, l);
+            let zmax = ztab.iter().fold(0.0f64, |m, v| m.max(v.abs()));
+            for j in 0..ny {
+                let ymax = (0..=l).fold(0.0f64, |m, b| m.max(ytab[b * ny + j].abs()));
+                if xmax * ymax * zmax < SCREEN {
+                    continue;
+                }
+                for (ci, c) in comps.iter().enumerate() {
+                    let coef = xpow[c[0] as usize] * ytab[c[1] as usize * ny + j];
+                    if coef == 0.0 {
+                        continue;
+                    }
+                    let zrow = &ztab[c[2] as usize * nz..(c[2] as usize + 1) * nz];
+                    for (f, row) in self.rows.iter().enumerate() {
+                        let w = row[ci] * coef;
+                        if w != 0.0 {
+                            let dst = &mut out[f * n + j * nz..f * n + (j + 1) * nz];
+                            for (o, zv) in dst.iter_mut().zip(zrow) {
+                                *o += w * zv;
+                            }
+                        }
+                    }
+                }
+            }
+        }
+    }
+}
+
+/// table[p·len + i] = (t_i − c)^p e^(−α (t_i − c)²) for p = 0..=l.
+fn fill_axis(table: &mut [f64], ts: &[f64], c: f64, alpha: f64, l: usize) {
+    let len = ts.len();
+    for (i, t) in ts.iter().enumerate() {
+        let d = t - c;
+        let mut v = (-alpha * d * d).exp();
+        for p in 0..=l {
+            table[p * len + i] = v;
+            v *= d;
+        }
+    }
+}

@@ -1,0 +1,81 @@
+//! The orbital file: what lobecast writes it reads back to identical numbers, and
+//! malformed files are refused with one error that names the field at fault.
+
+use std::path::Path;
+
+use lobecast::field::{Field, FieldSampler};
+use lobecast::solve::orbital_file::{parse, to_json};
+use lobecast::solve::orbitals_for;
+
+const H2: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
+    atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
+    [basis]\nset = \"slater-1s\"\nzeta = { H = 1.2 }\n";
+
+const GAUSSIAN: &str = r#"{
+  "format": "lobecast-orbitals", "version": 1, "length_unit": "bohr", "energy_unit": "hartree",
+  "atoms": [{"element": "H", "atomic_number": 1, "position": [0.0, 0.0, -1.0]},
+            {"element": "He", "atomic_number": 2, "position": [0.0, 0.0, 1.0]}],
+  "basis": [
+    {"atom": 0, "type": "slater", "n": 1, "l": 0, "m": 0, "zeta": 1.0},
+    {"atom": 1, "type": "gaussian", "powers": [0, 0, 1], "primitives": [[5.0, 0.3], [1.2, 0.8]]},
+    {"atom": 1, "type": "gaussian", "l": 2, "m": -2, "primitives": [[0.8, 1.0]]}
+  ],
+  "orbitals": [{"energy": -1.1, "occupation": 1.0, "coefficients": [0.5, 0.1, 0.2]},
+               {"energy": -1.5, "occupation": 0.0, "coefficients": [0.1, 0.5, 0.0]}]
+}"#;
+
+fn values(set: &lobecast::solve::OrbitalSet, fields: &[&str], pts: &[[f64; 3]]) -> Vec<f64> {
+    let fields: Vec<Field> = fields.iter().map(|f| Field::parse(f).unwrap()).collect();
+    let s = FieldSampler::new(set, &fields).unwrap();
+    let mut v = vec![0.0; pts.len() * fields.len()];
+    s.evaluate(pts, &mut v);
+    v
+}
+
+#[test]
+fn round_trip_keeps_every_number() {
+    let set = orbitals_for(&lobecast::model::parse(H2, Path::new("m.toml")).unwrap()).unwrap();
+    let text = to_json(&set);
+    let back = parse(&text, "o.json").unwrap();
+    assert_eq!(back.orbitals, set.orbitals, "energies, occupations and coefficients");
+    assert_eq!(back.molecule.atoms, set.molecule.atoms);
+    assert_eq!(back.molecule.charge, 1);
+    let pts = [[0.1, 0.2, 0.3], [1.0, -2.0, 0.5], [0.0, 0.0, 0.0]];
+    let f = ["orbital:1", "orbital:2", "orbital-deformation:1"];
+    assert_eq!(values(&back, &f, &pts), values(&set, &f, &pts));
+    assert_eq!(to_json(&back), text, "writing again gives the same text");
+}
+
+#[test]
+fn mixed_basis_is_read_sorted_and_grouped() {
+    let set = parse(GAUSSIAN, "g.json").unwrap();
+    assert_eq!(set.basis.len(), 3);
+    assert_eq!(set.orbitals[0].energy, -1.5, "orbitals are renumbered by energy");
+    assert!(set.notes.iter().any(|n| n.contains("renumbered")));
+    // A mixed Slater/Gaussian basis has no overlap matrix here, so Mulliken-based
+    // fields are refused while plain orbital fields work.
+    let f = Field::parse("orbital-deformation:1").unwrap();
+    assert!(FieldSampler::new(&set, &[f]).is_err());
+    assert_eq!(values(&set, &["orbital:1"], &[[0.0, 0.0, 1.0]]).len(), 1);
+}
+
+#[test]
+fn malformed_files_name_the_field() {
+    let cases: Vec<(String, &str)> = vec![
+        (GAUSSIAN.replace("[0.5, 0.1, 0.2]", "[0.5, 0.1]"), "orbitals[0].coefficients"),
+        (GAUSSIAN.replace("[[0.8, 1.0]]", "[[-0.8, 1.0]]"), "basis[2].primitives[0]"),
+        (GAUSSIAN.replace("\"type\": \"slater\"", "\"type\": \"bessel\""), "bessel"),
+        (GAUSSIAN.replace("-1.1", "NaN"), "line"),
+        (GAUSSIAN.replace("\"atom\": 1, \"type\": \"gaussian\", \"l\"", "\"atom\": 7, \"type\": \"gaussian\", \"l\""), "basis[2].atom"),
+        (GAUSSIAN.replace("\"version\": 1", "\"version\": 2"), "version"),
+        (GAUSSIAN.replace("\"atomic_number\": 2", "\"atomic_number\": 3"), "atoms[1].atomic_number"),
+        (GAUSSIAN.replace("\"l\": 2, \"m\": -2", "\"l\": 2, \"m\": -3"), "basis[2]"),
+        (GAUSSIAN.replace("\"occupation\": 1.0", "\"occupation\": 3.0"), "orbitals[0].occupation"),
+        (GAUSSIAN.replace("\"energy_unit\"", "\"energy_units\""), "energy_units"),
+    ];
+    for (text, needle) in cases {
+        let e = parse(&text, "bad.json").expect_err(needle);
+        assert!(e.message.contains(needle) && e.message.starts_with("bad.json"), "{needle}: {}", e.message);
+        assert!(!e.message.contains('\n'), "one line: {}", e.message);
+    }
+}
