@@ -1,6 +1,9 @@
 //! One-electron integrals over basis functions. Only matrices come out of here; no
 //! function allocates per grid point.
 
+pub mod boys;
+pub mod gaussian;
+pub mod hermite;
 pub mod two_centre;
 
 use nalgebra::DMatrix;
