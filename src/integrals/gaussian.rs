@@ -102,7 +102,7 @@ pub fn overlap_block(a: &CartesianShell, b: &CartesianShell) -> Vec<f64> {
     let (ca, cb) = (powers(a.l), powers(b.l));
     let mut out = vec![0.0; ca.len() * cb.len()];
     for_each_pair(a, b, 0, |pp| {
-        let scale = pp.weight * (PI / pp.p).powf(1.5);
+        let scale = pp.weight * (PI / pp.p) * (PI / pp.p).sqrt();
         let [ex, ey, ez] = &pp.e;
         for (i, pa) in ca.iter().enumerate() {
             for (j, pb) in cb.iter().enumerate() {
@@ -146,7 +146,7 @@ pub fn kinetic_block(a: &CartesianShell, b: &CartesianShell) -> Vec<f64> {
                 }
             }
         }
-        let scale = pp.weight * (PI / pp.p).powf(1.5);
+        let scale = pp.weight * (PI / pp.p) * (PI / pp.p).sqrt();
         for (i, pa) in ca.iter().enumerate() {
             for (j, pb) in cb.iter().enumerate() {
                 let [sx, sy, sz] = [0, 1, 2].map(|d| s[d][pa[d]][pb[d]]);
