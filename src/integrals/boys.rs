@@ -12,8 +12,9 @@
 //!   negligible against (2n+1) F_n, so nothing cancels.
 //!
 //! The switch grows with the highest order: the cancellation ratio of the upward
-//! step, e^(−T) T^(n+½) / Γ(n+3/2), stays below a few 10⁻³ for T ≥ 25 + n (checked
-//! for n up to 100), while the series needs about 2T + 30 terms below the switch.
+//! step, e^(−T) T^(n+½) / Γ(n+3/2), stays below a few 10⁻³ for T ≥ 25 + n (an
+//! estimate from the large-T form of F_n, for n up to 100; the tests measure n ≤ 12),
+//! while the series needs about 2T + 30 terms below the switch.
 
 /// The smallest T at which the upward recursion is used for orders up to `nmax`.
 fn upward_from(nmax: usize) -> f64 {
