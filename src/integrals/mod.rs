@@ -2,6 +2,9 @@
 //! function allocates per grid point.
 
 pub mod assemble;
+pub mod boys;
+pub mod gaussian;
+pub mod hermite;
 pub mod two_centre;
 
 pub use assemble::{OneElectronMatrices, gaussian_matrices, overlap_matrix, slater_1s_matrices};
