@@ -18,10 +18,21 @@ fn benzene() -> String {
     let mut atoms = Vec::new();
     for k in 0..6 {
         let a = std::f64::consts::PI / 3.0 * k as f64;
-        atoms.push(format!("{{ element = \"C\", position = [{}, {}, 0.0] }}", 1.3915 * a.cos(), 1.3915 * a.sin()));
-        atoms.push(format!("{{ element = \"H\", position = [{}, {}, 0.0] }}", 2.4715 * a.cos(), 2.4715 * a.sin()));
+        atoms.push(format!(
+            "{{ element = \"C\", position = [{}, {}, 0.0] }}",
+            1.3915 * a.cos(),
+            1.3915 * a.sin()
+        ));
+        atoms.push(format!(
+            "{{ element = \"H\", position = [{}, {}, 0.0] }}",
+            2.4715 * a.cos(),
+            2.4715 * a.sin()
+        ));
     }
-    format!("[molecule]\natoms = [{}]\n[basis]\nset = \"sto-3g\"\n", atoms.join(", "))
+    format!(
+        "[molecule]\natoms = [{}]\n[basis]\nset = \"sto-3g\"\n",
+        atoms.join(", ")
+    )
 }
 
 fn median(mut v: Vec<f64>) -> f64 {
@@ -35,10 +46,16 @@ fn run(grid: &GridBox, eval: &(dyn Fn(&lobecast::grid::Slab, &mut [f64]) + Sync)
             .map(|_| {
                 let t = Instant::now();
                 let mut sum = 0.0;
-                stream_slabs(grid, 1, eval, |v| v.iter().sum::<f64>(), |s| {
-                    sum += s;
-                    Ok(())
-                })
+                stream_slabs(
+                    grid,
+                    1,
+                    eval,
+                    |v| v.iter().sum::<f64>(),
+                    |s| {
+                        sum += s;
+                        Ok(())
+                    },
+                )
                 .unwrap();
                 std::hint::black_box(sum);
                 t.elapsed().as_secs_f64()
@@ -54,18 +71,31 @@ fn main() {
         molecule: model.molecule.clone(),
         basis: model.basis.clone(),
         overlap: None,
-        orbitals: vec![Orbital { energy: 0.0, occupation: 2.0, coefficients: (0..nbf).map(|i| 0.1 + 0.01 * i as f64).collect() }],
+        orbitals: vec![Orbital {
+            energy: 0.0,
+            occupation: 2.0,
+            coefficients: (0..nbf).map(|i| 0.1 + 0.01 * i as f64).collect(),
+        }],
         method: "bench".into(),
         notes: vec![],
     };
     let sampler = FieldSampler::new(&set, &[Field::parse("orbital:1").unwrap()]).unwrap();
     let grid = GridBox::around(&set.molecule, 4.0, Resolution::Points(128)).unwrap();
     let n = grid.point_count() as f64;
-    println!("benzene STO-3G: {nbf} functions, grid {:?} = {n} points", grid.counts);
+    println!(
+        "benzene STO-3G: {nbf} functions, grid {:?} = {n} points",
+        grid.counts
+    );
     for threads in [1, rayon::current_num_threads()] {
-        let pool = rayon::ThreadPoolBuilder::new().num_threads(threads).build().unwrap();
+        let pool = rayon::ThreadPoolBuilder::new()
+            .num_threads(threads)
+            .build()
+            .unwrap();
         let (sep, direct) = pool.install(|| {
-            (run(&grid, &|s, v| sampler.evaluate_slab(s, v)), run(&grid, &|s, v| sampler.evaluate(s.points, v)))
+            (
+                run(&grid, &|s, v| sampler.evaluate_slab(s, v)),
+                run(&grid, &|s, v| sampler.evaluate(s.points, v)),
+            )
         });
         println!(
             "{threads} thread(s): separable {sep:.3} s ({:.0} M point·functions/s), direct {direct:.3} s ({:.0} M point·functions/s), ratio {:.1}×",

@@ -57,7 +57,7 @@ fn main() {
         stream_slabs(
             &grid,
             1,
-            |p, v| sampler.evaluate(p, v),
+            |s, v| sampler.evaluate_slab(s, v),
             |v| v.iter().sum::<f64>(),
             |s| {
                 total += s;
@@ -93,7 +93,7 @@ fn main() {
     let path = dir.path().join("bench.cube");
     let cube = time(5, || {
         let mut w = BufWriter::with_capacity(1 << 20, std::fs::File::create(&path).unwrap());
-        write_streaming(&header, |p, v| sampler.evaluate(p, v), &mut w, &|_| {}).unwrap();
+        write_streaming(&header, |s, v| sampler.evaluate_slab(s, v), &mut w, &|_| {}).unwrap();
     });
     assert_eq!(
         std::fs::metadata(&path).unwrap().len() as usize,

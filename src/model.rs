@@ -90,7 +90,10 @@ pub struct Model {
 
 /// Reads a model file (TOML) or, for a `.json` path, an orbital file directly.
 pub fn load(path: &Path) -> Result<Model> {
-    if path.extension().is_some_and(|e| e.eq_ignore_ascii_case("json")) {
+    if path
+        .extension()
+        .is_some_and(|e| e.eq_ignore_ascii_case("json"))
+    {
         return from_orbitals(path, vec![path.to_path_buf()]);
     }
     let text = std::fs::read_to_string(path)
@@ -122,45 +125,79 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
                 "{name}: with method = \"file\" the molecule and basis come from the orbital file; remove [molecule] and [basis]"
             )));
         }
-        let rel = file.orbitals.path.ok_or_else(|| Error::input(format!("{name}: [orbitals] method = \"file\" needs path = \"orbitals.json\"")))?;
+        let rel = file.orbitals.path.ok_or_else(|| {
+            Error::input(format!(
+                "{name}: [orbitals] method = \"file\" needs path = \"orbitals.json\""
+            ))
+        })?;
         let orbitals = folder.join(rel);
         return from_orbitals(&orbitals, vec![path.to_path_buf(), orbitals.clone()]);
     }
     if file.orbitals.path.is_some() {
-        return Err(Error::input(format!("{name}: [orbitals] path is only used with method = \"file\"")));
+        return Err(Error::input(format!(
+            "{name}: [orbitals] path is only used with method = \"file\""
+        )));
     }
-    let m = file.molecule.ok_or_else(|| Error::input(format!("{name}: the model needs a [molecule] section")))?;
-    let spec = file.basis.ok_or_else(|| Error::input(format!("{name}: the model needs a [basis] section")))?;
+    let m = file
+        .molecule
+        .ok_or_else(|| Error::input(format!("{name}: the model needs a [molecule] section")))?;
+    let spec = file
+        .basis
+        .ok_or_else(|| Error::input(format!("{name}: the model needs a [basis] section")))?;
     let mut inputs = vec![path.to_path_buf()];
     let atoms = match (m.atoms, m.xyz) {
         (Some(_), Some(_)) => {
-            return Err(Error::input(format!("{name}: [molecule] gives both atoms and xyz; give one")));
+            return Err(Error::input(format!(
+                "{name}: [molecule] gives both atoms and xyz; give one"
+            )));
         }
         (None, None) => {
-            return Err(Error::input(format!("{name}: [molecule] needs atoms = [...] or xyz = \"file\"")));
+            return Err(Error::input(format!(
+                "{name}: [molecule] needs atoms = [...] or xyz = \"file\""
+            )));
         }
         (Some(list), None) => list
             .iter()
             .enumerate()
             .map(|(i, a)| {
                 let element = elements::by_symbol(&a.element).ok_or_else(|| {
-                    Error::input(format!("{name}: atom {} has unknown element {:?}", i + 1, a.element))
+                    Error::input(format!(
+                        "{name}: atom {} has unknown element {:?}",
+                        i + 1,
+                        a.element
+                    ))
                 })?;
-                Ok(Atom { element, position: a.position.map(|x| m.units.to_bohr(x)) })
+                Ok(Atom {
+                    element,
+                    position: a.position.map(|x| m.units.to_bohr(x)),
+                })
             })
             .collect::<Result<Vec<_>>>()?,
         (None, Some(xyz)) => {
             let xyz_path = folder.join(&xyz);
-            let text = std::fs::read_to_string(&xyz_path)
-                .map_err(|e| Error::input(format!("{name}: cannot read xyz file {}: {e}", xyz_path.display())))?;
+            let text = std::fs::read_to_string(&xyz_path).map_err(|e| {
+                Error::input(format!(
+                    "{name}: cannot read xyz file {}: {e}",
+                    xyz_path.display()
+                ))
+            })?;
             let frame = parse_xyz(&text, &xyz_path.display().to_string(), m.units)?;
             inputs.push(xyz_path);
             frame.atoms
         }
     };
-    let molecule = Molecule::new(atoms, m.charge).map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    let molecule = Molecule::new(atoms, m.charge)
+        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
     let basis = spec.build(&molecule)?;
-    Ok(Model { path: path.to_path_buf(), molecule, spec: Some(spec), basis, method: file.orbitals.method, orbitals: None, inputs })
+    Ok(Model {
+        path: path.to_path_buf(),
+        molecule,
+        spec: Some(spec),
+        basis,
+        method: file.orbitals.method,
+        orbitals: None,
+        inputs,
+    })
 }
 
 /// One line: file, line number, and TOML's own message (which names the key).

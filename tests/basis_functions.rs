@@ -43,7 +43,10 @@ fn sphere_grid(r_max: f64) -> Vec<([f64; 3], f64)> {
     let panels = 12;
     let mut out = Vec::new();
     for p in 0..panels {
-        let (a, b) = (r_max * p as f64 / panels as f64, r_max * (p + 1) as f64 / panels as f64);
+        let (a, b) = (
+            r_max * p as f64 / panels as f64,
+            r_max * (p + 1) as f64 / panels as f64,
+        );
         for (x, w) in &radial {
             let r = 0.5 * (b - a) * x + 0.5 * (a + b);
             let wr = 0.5 * (b - a) * w * r * r;
@@ -51,7 +54,10 @@ fn sphere_grid(r_max: f64) -> Vec<([f64; 3], f64)> {
                 let st = (1.0 - ct * ct).sqrt();
                 for k in 0..nphi {
                     let phi = 2.0 * PI * k as f64 / nphi as f64;
-                    out.push(([r * st * phi.cos(), r * st * phi.sin(), r * ct], wr * wt * 2.0 * PI / nphi as f64));
+                    out.push((
+                        [r * st * phi.cos(), r * st * phi.sin(), r * ct],
+                        wr * wt * 2.0 * PI / nphi as f64,
+                    ));
                 }
             }
         }
@@ -61,7 +67,13 @@ fn sphere_grid(r_max: f64) -> Vec<([f64; 3], f64)> {
 
 fn norms(values: &[f64], n_fun: usize, weights: &[f64]) -> Vec<f64> {
     let np = weights.len();
-    (0..n_fun).map(|f| (0..np).map(|p| values[f * np + p].powi(2) * weights[p]).sum()).collect()
+    (0..n_fun)
+        .map(|f| {
+            (0..np)
+                .map(|p| values[f * np + p].powi(2) * weights[p])
+                .sum()
+        })
+        .collect()
 }
 
 #[test]
@@ -71,11 +83,15 @@ fn gaussian_functions_are_normalised() {
     for l in 0..=3 {
         for pure in [true, false] {
             // Two primitives with arbitrary coefficients: the contraction is renormalised.
-            let shell = GaussianShell::full(0, [0.0; 3], l, vec![(1.3, 0.4), (0.35, 0.7)], pure).unwrap();
+            let shell =
+                GaussianShell::full(0, [0.0; 3], l, vec![(1.3, 0.4), (0.35, 0.7)], pure).unwrap();
             let mut v = vec![0.0; shell.len() * pts.len()];
             shell.values(&pts, &mut v);
             for (f, n) in norms(&v, shell.len(), &w).iter().enumerate() {
-                assert!((n - 1.0).abs() < 1e-10, "l={l} pure={pure} function {f}: ∫χ² = {n}");
+                assert!(
+                    (n - 1.0).abs() < 1e-10,
+                    "l={l} pure={pure} function {f}: ∫χ² = {n}"
+                );
             }
         }
     }
@@ -92,7 +108,10 @@ fn slater_functions_are_normalised() {
             let mut v = vec![0.0; shell.len() * pts.len()];
             shell.values(&pts, &mut v);
             for (f, q) in norms(&v, shell.len(), &w).iter().enumerate() {
-                assert!((q - 1.0).abs() < 1e-9, "n={n} l={l} function {f}: ∫χ² = {q}");
+                assert!(
+                    (q - 1.0).abs() < 1e-9,
+                    "n={n} l={l} function {f}: ∫χ² = {q}"
+                );
             }
         }
     }
@@ -104,16 +123,29 @@ fn separable_evaluation_matches_direct() {
     let zs: Vec<f64> = (0..31).map(|k| -4.0 + 0.26 * k as f64).collect();
     for l in 0..=3 {
         for pure in [true, false] {
-            let shell = GaussianShell::full(0, [0.3, -0.2, 0.45], l, vec![(4.1, 0.2), (0.9, 0.5), (0.21, 0.4)], pure).unwrap();
+            let shell = GaussianShell::full(
+                0,
+                [0.3, -0.2, 0.45],
+                l,
+                vec![(4.1, 0.2), (0.9, 0.5), (0.21, 0.4)],
+                pure,
+            )
+            .unwrap();
             for x in [-2.5, 0.0, 0.3, 1.7] {
-                let pts: Vec<[f64; 3]> = ys.iter().flat_map(|&y| zs.iter().map(move |&z| [x, y, z])).collect();
+                let pts: Vec<[f64; 3]> = ys
+                    .iter()
+                    .flat_map(|&y| zs.iter().map(move |&z| [x, y, z]))
+                    .collect();
                 let mut direct = vec![0.0; shell.len() * pts.len()];
                 let mut lattice = vec![1.0; shell.len() * pts.len()];
                 shell.values(&pts, &mut direct);
                 shell.values_lattice(x, &ys, &zs, &mut lattice);
                 let max = direct.iter().fold(0.0f64, |m, v| m.max(v.abs()));
                 for (d, s) in direct.iter().zip(&lattice) {
-                    assert!((d - s).abs() <= 1e-12 * max, "l={l} pure={pure} x={x}: {d} vs {s}");
+                    assert!(
+                        (d - s).abs() <= 1e-12 * max,
+                        "l={l} pure={pure} x={x}: {d} vs {s}"
+                    );
                 }
             }
         }
@@ -126,7 +158,10 @@ fn pure_and_cartesian_p_span_the_same_functions() {
     // pure p functions equal the Cartesian ones in that order.
     let pure = GaussianShell::full(0, [0.0; 3], 1, vec![(0.8, 1.0)], true).unwrap();
     let cart = GaussianShell::full(0, [0.0; 3], 1, vec![(0.8, 1.0)], false).unwrap();
-    assert_eq!(cartesian_components(1), vec![[1, 0, 0], [0, 1, 0], [0, 0, 1]]);
+    assert_eq!(
+        cartesian_components(1),
+        vec![[1, 0, 0], [0, 1, 0], [0, 0, 1]]
+    );
     assert_eq!(cart.functions[0], Angular::Cartesian([1, 0, 0]));
     let p = [[0.3, -0.7, 1.1]];
     let (mut a, mut b) = (vec![0.0; 3], vec![0.0; 3]);

@@ -29,16 +29,25 @@ fn h2(basis: &str) -> String {
 
 #[test]
 fn hydrogen_atom_in_sto_3g() {
-    let e = energy("[molecule]\natoms = [{ element = \"H\", position = [0, 0, 0] }]\n[basis]\nset = \"sto-3g\"\n");
+    let e = energy(
+        "[molecule]\natoms = [{ element = \"H\", position = [0, 0, 0] }]\n[basis]\nset = \"sto-3g\"\n",
+    );
     assert!((e + 0.466582).abs() < 5e-7, "E = {e}");
 }
 
 #[test]
 fn even_tempered_approaches_the_exact_energy_from_above() {
-    let text = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/examples/h2-cation-even-tempered.toml")).unwrap();
+    let text = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/examples/h2-cation-even-tempered.toml"
+    ))
+    .unwrap();
     let e = energy(&text);
     assert!(e > EXACT_R2_HARTREE, "variational bound: {e}");
-    assert!(e - EXACT_R2_HARTREE < 2e-4, "within 2e-4 hartree of the exact energy: {e}");
+    assert!(
+        e - EXACT_R2_HARTREE < 2e-4,
+        "within 2e-4 hartree of the exact energy: {e}"
+    );
 }
 
 #[test]
@@ -48,7 +57,10 @@ fn sto_ng_lies_above_the_slater_energy_and_approaches_it() {
     let slater = two_centre_1s(1.0, 1.24, 2.0).e_bonding;
     let e3 = energy(&h2("[basis]\nset = \"sto-3g\"\n"));
     let e6 = energy(&h2("[basis]\nset = \"sto-6g\"\n"));
-    assert!(e3 > e6 && e6 > slater, "STO-3G {e3} > STO-6G {e6} > Slater {slater}");
+    assert!(
+        e3 > e6 && e6 > slater,
+        "STO-3G {e3} > STO-6G {e6} > Slater {slater}"
+    );
     assert!(e6 - slater < e3 - slater);
 }
 

@@ -36,7 +36,7 @@ fn integrals_on_the_grid() {
         "density",
     ]);
     let sampler = FieldSampler::new(&set, &list).unwrap();
-    let values = sample_all(&grid, list.len(), |p, v| sampler.evaluate(p, v));
+    let values = sample_all(&grid, list.len(), |s, v| sampler.evaluate_slab(s, v));
     let dv = grid.voxel_volume();
     let sums: Vec<f64> = (0..list.len())
         .map(|k| values.iter().skip(k).step_by(list.len()).sum::<f64>() * dv)
@@ -56,7 +56,7 @@ fn antibonding_orbital_vanishes_on_the_mid_plane() {
     let set = set();
     let grid = GridBox::around(&set.molecule, 5.0, Resolution::Spacing(0.1)).unwrap();
     let sampler = FieldSampler::new(&set, &fields(&["orbital:2"])).unwrap();
-    let values = sample_all(&grid, 1, |p, v| sampler.evaluate(p, v));
+    let values = sample_all(&grid, 1, |s, v| sampler.evaluate_slab(s, v));
     let [nx, ny, nz] = grid.counts;
     let mid = (0..nz)
         .find(|&k| grid.point(0, 0, k)[2].abs() < 1e-9)

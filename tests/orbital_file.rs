@@ -37,7 +37,10 @@ fn round_trip_keeps_every_number() {
     let set = orbitals_for(&lobecast::model::parse(H2, Path::new("m.toml")).unwrap()).unwrap();
     let text = to_json(&set);
     let back = parse(&text, "o.json").unwrap();
-    assert_eq!(back.orbitals, set.orbitals, "energies, occupations and coefficients");
+    assert_eq!(
+        back.orbitals, set.orbitals,
+        "energies, occupations and coefficients"
+    );
     assert_eq!(back.molecule.atoms, set.molecule.atoms);
     assert_eq!(back.molecule.charge, 1);
     let pts = [[0.1, 0.2, 0.3], [1.0, -2.0, 0.5], [0.0, 0.0, 0.0]];
@@ -50,7 +53,10 @@ fn round_trip_keeps_every_number() {
 fn mixed_basis_is_read_sorted_and_grouped() {
     let set = parse(GAUSSIAN, "g.json").unwrap();
     assert_eq!(set.basis.len(), 3);
-    assert_eq!(set.orbitals[0].energy, -1.5, "orbitals are renumbered by energy");
+    assert_eq!(
+        set.orbitals[0].energy, -1.5,
+        "orbitals are renumbered by energy"
+    );
     assert!(set.notes.iter().any(|n| n.contains("renumbered")));
     // A mixed Slater/Gaussian basis has no overlap matrix here, so Mulliken-based
     // fields are refused while plain orbital fields work.
@@ -62,20 +68,54 @@ fn mixed_basis_is_read_sorted_and_grouped() {
 #[test]
 fn malformed_files_name_the_field() {
     let cases: Vec<(String, &str)> = vec![
-        (GAUSSIAN.replace("[0.5, 0.1, 0.2]", "[0.5, 0.1]"), "orbitals[0].coefficients"),
-        (GAUSSIAN.replace("[[0.8, 1.0]]", "[[-0.8, 1.0]]"), "basis[2].primitives[0]"),
-        (GAUSSIAN.replace("\"type\": \"slater\"", "\"type\": \"bessel\""), "bessel"),
+        (
+            GAUSSIAN.replace("[0.5, 0.1, 0.2]", "[0.5, 0.1]"),
+            "orbitals[0].coefficients",
+        ),
+        (
+            GAUSSIAN.replace("[[0.8, 1.0]]", "[[-0.8, 1.0]]"),
+            "basis[2].primitives[0]",
+        ),
+        (
+            GAUSSIAN.replace("\"type\": \"slater\"", "\"type\": \"bessel\""),
+            "bessel",
+        ),
         (GAUSSIAN.replace("-1.1", "NaN"), "line"),
-        (GAUSSIAN.replace("\"atom\": 1, \"type\": \"gaussian\", \"l\"", "\"atom\": 7, \"type\": \"gaussian\", \"l\""), "basis[2].atom"),
-        (GAUSSIAN.replace("\"version\": 1", "\"version\": 2"), "version"),
-        (GAUSSIAN.replace("\"atomic_number\": 2", "\"atomic_number\": 3"), "atoms[1].atomic_number"),
-        (GAUSSIAN.replace("\"l\": 2, \"m\": -2", "\"l\": 2, \"m\": -3"), "basis[2]"),
-        (GAUSSIAN.replace("\"occupation\": 1.0", "\"occupation\": 3.0"), "orbitals[0].occupation"),
-        (GAUSSIAN.replace("\"energy_unit\"", "\"energy_units\""), "energy_units"),
+        (
+            GAUSSIAN.replace(
+                "\"atom\": 1, \"type\": \"gaussian\", \"l\"",
+                "\"atom\": 7, \"type\": \"gaussian\", \"l\"",
+            ),
+            "basis[2].atom",
+        ),
+        (
+            GAUSSIAN.replace("\"version\": 1", "\"version\": 2"),
+            "version",
+        ),
+        (
+            GAUSSIAN.replace("\"atomic_number\": 2", "\"atomic_number\": 3"),
+            "atoms[1].atomic_number",
+        ),
+        (
+            GAUSSIAN.replace("\"l\": 2, \"m\": -2", "\"l\": 2, \"m\": -3"),
+            "basis[2]",
+        ),
+        (
+            GAUSSIAN.replace("\"occupation\": 1.0", "\"occupation\": 3.0"),
+            "orbitals[0].occupation",
+        ),
+        (
+            GAUSSIAN.replace("\"energy_unit\"", "\"energy_units\""),
+            "energy_units",
+        ),
     ];
     for (text, needle) in cases {
         let e = parse(&text, "bad.json").expect_err(needle);
-        assert!(e.message.contains(needle) && e.message.starts_with("bad.json"), "{needle}: {}", e.message);
+        assert!(
+            e.message.contains(needle) && e.message.starts_with("bad.json"),
+            "{needle}: {}",
+            e.message
+        );
         assert!(!e.message.contains('\n'), "one line: {}", e.message);
     }
 }

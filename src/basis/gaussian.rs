@@ -52,19 +52,33 @@ fn pure_factor(l: u32) -> f64 {
 impl GaussianShell {
     /// Builds a shell. `functions` lists which components it carries; every one must
     /// have angular momentum `l`.
-    pub fn new(atom: usize, center: [f64; 3], l: u32, primitives: Vec<(f64, f64)>, functions: Vec<Angular>) -> Result<Self> {
+    pub fn new(
+        atom: usize,
+        center: [f64; 3],
+        l: u32,
+        primitives: Vec<(f64, f64)>,
+        functions: Vec<Angular>,
+    ) -> Result<Self> {
         if l > super::harmonics::L_MAX {
-            return Err(Error::input(format!("Gaussian functions up to l = 3 are supported, got l = {l}")));
+            return Err(Error::input(format!(
+                "Gaussian functions up to l = 3 are supported, got l = {l}"
+            )));
         }
         if primitives.is_empty() {
-            return Err(Error::input("a Gaussian function needs at least one primitive"));
+            return Err(Error::input(
+                "a Gaussian function needs at least one primitive",
+            ));
         }
         for (a, c) in &primitives {
             if !(a.is_finite() && *a > 0.0) {
-                return Err(Error::input(format!("Gaussian exponents must be positive, got {a}")));
+                return Err(Error::input(format!(
+                    "Gaussian exponents must be positive, got {a}"
+                )));
             }
             if !c.is_finite() {
-                return Err(Error::input(format!("contraction coefficient {c} is not finite")));
+                return Err(Error::input(format!(
+                    "contraction coefficient {c} is not finite"
+                )));
             }
         }
         let comps = cartesian_components(l);
@@ -76,14 +90,25 @@ impl GaussianShell {
                     if p.iter().sum::<u32>() != l {
                         return Err(Error::input(format!("powers {p:?} do not sum to l = {l}")));
                     }
-                    let i = comps.iter().position(|c| *c == p).expect("components cover every power triple");
-                    row[i] = 1.0 / (double_factorial_odd(p[0]) * double_factorial_odd(p[1]) * double_factorial_odd(p[2])).sqrt();
+                    let i = comps
+                        .iter()
+                        .position(|c| *c == p)
+                        .expect("components cover every power triple");
+                    row[i] = 1.0
+                        / (double_factorial_odd(p[0])
+                            * double_factorial_odd(p[1])
+                            * double_factorial_odd(p[2]))
+                        .sqrt();
                 }
                 Angular::Pure(m) => {
-                    let poly = solid_harmonic(l, m)
-                        .ok_or_else(|| Error::input(format!("m = {m} is out of range for l = {l}")))?;
+                    let poly = solid_harmonic(l, m).ok_or_else(|| {
+                        Error::input(format!("m = {m} is out of range for l = {l}"))
+                    })?;
                     for (c, p) in poly {
-                        let i = comps.iter().position(|q| *q == p).expect("harmonic terms have degree l");
+                        let i = comps
+                            .iter()
+                            .position(|q| *q == p)
+                            .expect("harmonic terms have degree l");
                         row[i] += c * pure_factor(l);
                     }
                 }
@@ -100,20 +125,43 @@ impl GaussianShell {
             }
         }
         if self_overlap.is_nan() || self_overlap <= 0.0 {
-            return Err(Error::input("the contraction coefficients give a function of zero norm"));
+            return Err(Error::input(
+                "the contraction coefficients give a function of zero norm",
+            ));
         }
         let renorm = 1.0 / self_overlap.sqrt();
-        let d = primitives.iter().map(|(a, c)| c * radial_norm(*a, l) * renorm).collect();
+        let d = primitives
+            .iter()
+            .map(|(a, c)| c * radial_norm(*a, l) * renorm)
+            .collect();
         let exponents = primitives.iter().map(|p| p.0).collect();
-        Ok(GaussianShell { atom, center, l, primitives, exponents, functions, d, rows })
+        Ok(GaussianShell {
+            atom,
+            center,
+            l,
+            primitives,
+            exponents,
+            functions,
+            d,
+            rows,
+        })
     }
 
     /// Every function of angular momentum l: pure (2l+1) or Cartesian ((l+1)(l+2)/2).
-    pub fn full(atom: usize, center: [f64; 3], l: u32, primitives: Vec<(f64, f64)>, pure: bool) -> Result<Self> {
+    pub fn full(
+        atom: usize,
+        center: [f64; 3],
+        l: u32,
+        primitives: Vec<(f64, f64)>,
+        pure: bool,
+    ) -> Result<Self> {
         let functions = if pure {
             (-(l as i32)..=l as i32).map(Angular::Pure).collect()
         } else {
-            cartesian_components(l).into_iter().map(Angular::Cartesian).collect()
+            cartesian_components(l)
+                .into_iter()
+                .map(Angular::Cartesian)
+                .collect()
         };
         Self::new(atom, center, l, primitives, functions)
     }
@@ -133,9 +181,18 @@ impl GaussianShell {
         let comps = cartesian_components(self.l);
         let mut mono = vec![0.0; comps.len()];
         for (p, pt) in points.iter().enumerate() {
-            let (x, y, z) = (pt[0] - self.center[0], pt[1] - self.center[1], pt[2] - self.center[2]);
+            let (x, y, z) = (
+                pt[0] - self.center[0],
+                pt[1] - self.center[1],
+                pt[2] - self.center[2],
+            );
             let r2 = x * x + y * y + z * z;
-            let radial: f64 = self.primitives.iter().zip(&self.d).map(|((a, _), d)| d * (-a * r2).exp()).sum();
+            let radial: f64 = self
+                .primitives
+                .iter()
+                .zip(&self.d)
+                .map(|((a, _), d)| d * (-a * r2).exp())
+                .sum();
             for (m, c) in mono.iter_mut().zip(&comps) {
                 *m = x.powi(c[0] as i32) * y.powi(c[1] as i32) * z.powi(c[2] as i32);
             }

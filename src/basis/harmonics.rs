@@ -61,7 +61,11 @@ pub fn solid_harmonic(l: u32, m: i32) -> Option<Polynomial> {
         }
         (3, 0) => {
             let k = c(7.0, 16.0);
-            vec![(2.0 * k, [0, 0, 3]), (-3.0 * k, [2, 0, 1]), (-3.0 * k, [0, 2, 1])]
+            vec![
+                (2.0 * k, [0, 0, 3]),
+                (-3.0 * k, [2, 0, 1]),
+                (-3.0 * k, [0, 2, 1]),
+            ]
         }
         (3, 1) => {
             let k = c(21.0, 32.0);
@@ -86,9 +90,21 @@ pub fn harmonic_name(l: u32, m: i32) -> &'static str {
         &["s"],
         &["py", "pz", "px"],
         &["dxy", "dyz", "dz2", "dxz", "dx2-y2"],
-        &["fy(3x2-y2)", "fxyz", "fyz2", "fz3", "fxz2", "fz(x2-y2)", "fx(x2-3y2)"],
+        &[
+            "fy(3x2-y2)",
+            "fxyz",
+            "fyz2",
+            "fz3",
+            "fxz2",
+            "fz(x2-y2)",
+            "fx(x2-3y2)",
+        ],
     ];
-    NAMES.get(l as usize).and_then(|n| n.get((m + l as i32) as usize)).copied().unwrap_or("?")
+    NAMES
+        .get(l as usize)
+        .and_then(|n| n.get((m + l as i32) as usize))
+        .copied()
+        .unwrap_or("?")
 }
 
 /// Name of a Cartesian component: "s", "x", "xy", "zzz", …
@@ -96,12 +112,18 @@ pub fn cartesian_name(p: [u32; 3]) -> String {
     if p == [0, 0, 0] {
         return "s".into();
     }
-    ["x", "y", "z"].iter().zip(p).map(|(s, n)| s.repeat(n as usize)).collect()
+    ["x", "y", "z"]
+        .iter()
+        .zip(p)
+        .map(|(s, n)| s.repeat(n as usize))
+        .collect()
 }
 
 /// Evaluates a polynomial at (x, y, z).
 pub fn eval_polynomial(poly: &[(f64, [u32; 3])], x: f64, y: f64, z: f64) -> f64 {
-    poly.iter().map(|(c, [a, b, e])| c * x.powi(*a as i32) * y.powi(*b as i32) * z.powi(*e as i32)).sum()
+    poly.iter()
+        .map(|(c, [a, b, e])| c * x.powi(*a as i32) * y.powi(*b as i32) * z.powi(*e as i32))
+        .sum()
 }
 
 #[cfg(test)]
@@ -131,7 +153,10 @@ mod tests {
             for j in 0..2 * n {
                 let phi = 2.0 * PI * j as f64 / (2 * n) as f64;
                 let s = (1.0 - x * x).sqrt();
-                nodes.push(([s * phi.cos(), s * phi.sin(), x], w * 2.0 * PI / (2 * n) as f64));
+                nodes.push((
+                    [s * phi.cos(), s * phi.sin(), x],
+                    w * 2.0 * PI / (2 * n) as f64,
+                ));
             }
         }
         nodes
@@ -140,11 +165,21 @@ mod tests {
     #[test]
     fn harmonics_are_orthonormal_on_the_sphere() {
         let rule = sphere_rule();
-        let all: Vec<(u32, i32)> = (0..=L_MAX).flat_map(|l| (-(l as i32)..=l as i32).map(move |m| (l, m))).collect();
+        let all: Vec<(u32, i32)> = (0..=L_MAX)
+            .flat_map(|l| (-(l as i32)..=l as i32).map(move |m| (l, m)))
+            .collect();
         for &(l1, m1) in &all {
             for &(l2, m2) in &all {
-                let (p1, p2) = (solid_harmonic(l1, m1).unwrap(), solid_harmonic(l2, m2).unwrap());
-                let s: f64 = rule.iter().map(|([x, y, z], w)| w * eval_polynomial(&p1, *x, *y, *z) * eval_polynomial(&p2, *x, *y, *z)).sum();
+                let (p1, p2) = (
+                    solid_harmonic(l1, m1).unwrap(),
+                    solid_harmonic(l2, m2).unwrap(),
+                );
+                let s: f64 = rule
+                    .iter()
+                    .map(|([x, y, z], w)| {
+                        w * eval_polynomial(&p1, *x, *y, *z) * eval_polynomial(&p2, *x, *y, *z)
+                    })
+                    .sum();
                 let expect = if (l1, m1) == (l2, m2) { 1.0 } else { 0.0 };
                 assert!((s - expect).abs() < 1e-13, "⟨{l1}{m1}|{l2}{m2}⟩ = {s}");
             }
@@ -157,7 +192,17 @@ mod tests {
         assert_eq!(solid_harmonic(1, -1).unwrap()[0].1, [0, 1, 0]);
         assert_eq!(solid_harmonic(1, 1).unwrap()[0].1, [1, 0, 0]);
         assert_eq!(solid_harmonic(2, -2).unwrap()[0].1, [1, 1, 0]);
-        assert_eq!(cartesian_components(2), vec![[2, 0, 0], [1, 1, 0], [1, 0, 1], [0, 2, 0], [0, 1, 1], [0, 0, 2]]);
+        assert_eq!(
+            cartesian_components(2),
+            vec![
+                [2, 0, 0],
+                [1, 1, 0],
+                [1, 0, 1],
+                [0, 2, 0],
+                [0, 1, 1],
+                [0, 0, 2]
+            ]
+        );
         assert_eq!(cartesian_components(3).len(), 10);
         assert_eq!(harmonic_name(2, 0), "dz2");
         assert_eq!(cartesian_name([1, 0, 2]), "xzz");

@@ -51,13 +51,24 @@ impl Shell {
         match self {
             Shell::Slater(s) => {
                 let h = harmonics::harmonic_name(s.l, s.ms[k]);
-                let h = if s.l == 0 { String::from("s") } else { h.to_string() };
+                let h = if s.l == 0 {
+                    String::from("s")
+                } else {
+                    h.to_string()
+                };
                 format!("{}{}(ζ={:.3})", s.n, h, s.zeta)
             }
-            Shell::Gaussian(g) => match g.functions[k] {
-                Angular::Pure(m) => format!("G{}", harmonics::harmonic_name(g.l, m)),
-                Angular::Cartesian(p) => format!("G{}", harmonics::cartesian_name(p)),
-            },
+            Shell::Gaussian(g) => {
+                let ang = match g.functions[k] {
+                    Angular::Pure(m) => harmonics::harmonic_name(g.l, m).to_string(),
+                    Angular::Cartesian(p) => harmonics::cartesian_name(p),
+                };
+                let amin = g.exponents.iter().cloned().fold(f64::INFINITY, f64::min);
+                match g.exponents.len() {
+                    1 => format!("{ang}(α={amin:.4})"),
+                    n => format!("{ang}({n}G, α≥{amin:.4})"),
+                }
+            }
         }
     }
 
@@ -102,7 +113,10 @@ impl Basis {
 
     /// (atom, label) of every function, in basis order.
     pub fn function_labels(&self) -> Vec<(usize, String)> {
-        self.shells.iter().flat_map(|s| (0..s.len()).map(move |k| (s.atom(), s.label(k)))).collect()
+        self.shells
+            .iter()
+            .flat_map(|s| (0..s.len()).map(move |k| (s.atom(), s.label(k))))
+            .collect()
     }
 
     /// Whether every shell is Gaussian (analytic integrals exist for any geometry).

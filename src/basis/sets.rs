@@ -52,7 +52,12 @@ pub const SET_NAMES: &str = "slater-1s, sto-3g, sto-6g, even-tempered, custom";
 
 impl BasisSpec {
     pub fn named(set: &str) -> Self {
-        BasisSpec { set: set.into(), zeta: BTreeMap::new(), even_tempered: BTreeMap::new(), shells: BTreeMap::new() }
+        BasisSpec {
+            set: set.into(),
+            zeta: BTreeMap::new(),
+            even_tempered: BTreeMap::new(),
+            shells: BTreeMap::new(),
+        }
     }
 
     pub fn is_slater_1s(&self) -> bool {
@@ -62,12 +67,23 @@ impl BasisSpec {
     /// Places the basis on every atom of `molecule`.
     pub fn build(&self, molecule: &Molecule) -> Result<Basis> {
         let set = self.set.to_ascii_lowercase();
-        if !matches!(set.as_str(), "slater-1s" | "sto-3g" | "sto-6g" | "even-tempered" | "custom") {
-            return Err(Error::input(format!("unknown basis set {:?}", self.set)).with_hint(format!("the basis sets are: {SET_NAMES}")));
+        if !matches!(
+            set.as_str(),
+            "slater-1s" | "sto-3g" | "sto-6g" | "even-tempered" | "custom"
+        ) {
+            return Err(Error::input(format!("unknown basis set {:?}", self.set))
+                .with_hint(format!("the basis sets are: {SET_NAMES}")));
         }
-        for key in self.zeta.keys().chain(self.even_tempered.keys()).chain(self.shells.keys()) {
+        for key in self
+            .zeta
+            .keys()
+            .chain(self.even_tempered.keys())
+            .chain(self.shells.keys())
+        {
             if elements::by_symbol(key).is_none() {
-                return Err(Error::input(format!("[basis] names an unknown element {key:?}")));
+                return Err(Error::input(format!(
+                    "[basis] names an unknown element {key:?}"
+                )));
             }
         }
         let mut shells = Vec::new();
@@ -77,23 +93,35 @@ impl BasisSpec {
             if let Some(key) = find(self.shells.keys(), symbol) {
                 for s in &self.shells[&key] {
                     let prims = s.primitives.iter().map(|p| (p[0], p[1])).collect();
-                    let shell = GaussianShell::full(i, c, s.l, prims, !s.cartesian)
-                        .map_err(|e| Error::input(format!("[basis] shells for {symbol}: {}", e.message)))?;
+                    let shell =
+                        GaussianShell::full(i, c, s.l, prims, !s.cartesian).map_err(|e| {
+                            Error::input(format!("[basis] shells for {symbol}: {}", e.message))
+                        })?;
                     shells.push(Shell::Gaussian(shell));
                 }
                 continue;
             }
             match set.as_str() {
                 "slater-1s" => {
-                    let zeta = find(self.zeta.keys(), symbol).map_or(atom.charge(), |k| self.zeta[&k]);
-                    let s = SlaterShell::s1(i, c, zeta).map_err(|e| Error::input(format!("[basis] zeta for {symbol}: {}", e.message)))?;
+                    let zeta =
+                        find(self.zeta.keys(), symbol).map_or(atom.charge(), |k| self.zeta[&k]);
+                    let s = SlaterShell::s1(i, c, zeta).map_err(|e| {
+                        Error::input(format!("[basis] zeta for {symbol}: {}", e.message))
+                    })?;
                     shells.push(Shell::Slater(s));
                 }
                 "sto-3g" | "sto-6g" => {
-                    let named = super::named::shells(&set, atom.element.atomic_number)
-                        .ok_or_else(|| Error::input(format!("the {set} set has no functions for {symbol}")))?;
+                    let named = super::named::shells(&set, atom.element.atomic_number).ok_or_else(
+                        || Error::input(format!("the {set} set has no functions for {symbol}")),
+                    )?;
                     for s in named {
-                        shells.push(Shell::Gaussian(GaussianShell::full(i, c, s.l, s.primitives, true)?));
+                        shells.push(Shell::Gaussian(GaussianShell::full(
+                            i,
+                            c,
+                            s.l,
+                            s.primitives,
+                            true,
+                        )?));
                     }
                 }
                 "even-tempered" => {
@@ -104,8 +132,12 @@ impl BasisSpec {
                     shells.extend(even_tempered(i, c, &self.even_tempered[&key], symbol)?);
                 }
                 _ => {
-                    return Err(Error::input(format!("the custom basis has no shells for {symbol}"))
-                        .with_hint(format!("add [basis.shells] {symbol} = [{{ l = 0, primitives = [[1.0, 1.0]] }}]")));
+                    return Err(Error::input(format!(
+                        "the custom basis has no shells for {symbol}"
+                    ))
+                    .with_hint(format!(
+                        "add [basis.shells] {symbol} = [{{ l = 0, primitives = [[1.0, 1.0]] }}]"
+                    )));
                 }
             }
         }
@@ -127,13 +159,22 @@ fn even_tempered(atom: usize, c: [f64; 3], p: &EvenTempered, symbol: &str) -> Re
         return Err(bad(format!("count must be 1 to 60, got {}", p.count)));
     }
     if !(p.alpha.is_finite() && p.alpha > 0.0 && p.beta.is_finite() && p.beta > 1.0) {
-        return Err(bad(format!("need alpha > 0 and beta > 1, got alpha = {}, beta = {}", p.alpha, p.beta)));
+        return Err(bad(format!(
+            "need alpha > 0 and beta > 1, got alpha = {}, beta = {}",
+            p.alpha, p.beta
+        )));
     }
     let mut out = Vec::new();
     for l in 0..=p.l_max {
         for k in 0..p.count {
             let alpha = p.alpha * p.beta.powi(k as i32);
-            out.push(Shell::Gaussian(GaussianShell::full(atom, c, l, vec![(alpha, 1.0)], true)?));
+            out.push(Shell::Gaussian(GaussianShell::full(
+                atom,
+                c,
+                l,
+                vec![(alpha, 1.0)],
+                true,
+            )?));
         }
     }
     Ok(out)

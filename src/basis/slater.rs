@@ -24,20 +24,43 @@ pub struct SlaterShell {
 }
 
 impl SlaterShell {
-    pub fn new(atom: usize, center: [f64; 3], n: u32, l: u32, zeta: f64, ms: Vec<i32>) -> Result<Self> {
+    pub fn new(
+        atom: usize,
+        center: [f64; 3],
+        n: u32,
+        l: u32,
+        zeta: f64,
+        ms: Vec<i32>,
+    ) -> Result<Self> {
         if !(1..=6).contains(&n) || l > L_MAX || l >= n {
-            return Err(Error::input(format!("Slater functions need 1 ≤ n ≤ 6 and l < n, l ≤ 3; got n = {n}, l = {l}")));
+            return Err(Error::input(format!(
+                "Slater functions need 1 ≤ n ≤ 6 and l < n, l ≤ 3; got n = {n}, l = {l}"
+            )));
         }
         if !(zeta.is_finite() && zeta > 0.0) {
-            return Err(Error::input(format!("Slater exponents must be positive, got {zeta}")));
+            return Err(Error::input(format!(
+                "Slater exponents must be positive, got {zeta}"
+            )));
         }
         let harmonics = ms
             .iter()
-            .map(|&m| solid_harmonic(l, m).ok_or_else(|| Error::input(format!("m = {m} is out of range for l = {l}"))))
+            .map(|&m| {
+                solid_harmonic(l, m)
+                    .ok_or_else(|| Error::input(format!("m = {m} is out of range for l = {l}")))
+            })
             .collect::<Result<Vec<_>>>()?;
         let fact: f64 = (1..=2 * n).map(f64::from).product();
         let norm = (2.0 * zeta).powf(n as f64 + 0.5) / fact.sqrt();
-        Ok(SlaterShell { atom, center, n, l, zeta, ms, harmonics, norm })
+        Ok(SlaterShell {
+            atom,
+            center,
+            n,
+            l,
+            zeta,
+            ms,
+            harmonics,
+            norm,
+        })
     }
 
     /// One 1s function.
@@ -62,7 +85,11 @@ impl SlaterShell {
         let np = points.len();
         let power = self.n as i32 - 1 - self.l as i32;
         for (p, pt) in points.iter().enumerate() {
-            let (x, y, z) = (pt[0] - self.center[0], pt[1] - self.center[1], pt[2] - self.center[2]);
+            let (x, y, z) = (
+                pt[0] - self.center[0],
+                pt[1] - self.center[1],
+                pt[2] - self.center[2],
+            );
             let r = (x * x + y * y + z * z).sqrt();
             let radial = if self.zeta * r > SCREEN_ZETA_R {
                 0.0
@@ -70,7 +97,11 @@ impl SlaterShell {
                 self.norm * r.powi(power) * (-self.zeta * r).exp()
             };
             for (f, h) in self.harmonics.iter().enumerate() {
-                out[f * np + p] = if radial == 0.0 { 0.0 } else { radial * eval_polynomial(h, x, y, z) };
+                out[f * np + p] = if radial == 0.0 {
+                    0.0
+                } else {
+                    radial * eval_polynomial(h, x, y, z)
+                };
             }
         }
     }

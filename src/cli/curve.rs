@@ -50,11 +50,18 @@ pub struct CurveArgs {
 fn two_atom_model(model: &Model) -> Result<(&Molecule, &BasisSpec)> {
     let m = &model.molecule;
     if m.atoms.len() != 2 {
-        return Err(Error::input(format!("curve needs a model of exactly two atoms; this one has {}", m.atoms.len())));
+        return Err(Error::input(format!(
+            "curve needs a model of exactly two atoms; this one has {}",
+            m.atoms.len()
+        )));
     }
     let spec = match (&model.spec, model.method) {
         (Some(spec), Method::OneElectron) => spec,
-        _ => return Err(Error::input("curve needs a model that lobecast solves (method = \"one-electron\"), not an orbital file")),
+        _ => {
+            return Err(Error::input(
+                "curve needs a model that lobecast solves (method = \"one-electron\"), not an orbital file",
+            ));
+        }
     };
     let nuclear = m.atoms[0].element.atomic_number + m.atoms[1].element.atomic_number;
     if m.electron_count() != 1 {
@@ -71,31 +78,53 @@ fn two_atom_model(model: &Model) -> Result<(&Molecule, &BasisSpec)> {
 pub fn run(args: CurveArgs) -> Result<()> {
     let model = load_model(&args.model)?;
     let (molecule, spec) = two_atom_model(&model)?;
-    let rs = curve::separations(length(args.from, args.units), length(args.to, args.units), length(args.step, args.units))?;
+    let rs = curve::separations(
+        length(args.from, args.units),
+        length(args.to, args.units),
+        length(args.step, args.units),
+    )?;
     for path in [&args.csv, &args.json].into_iter().flatten() {
         check_not_input(path, &model.inputs)?;
     }
     let (a, b) = (&molecule.atoms[0], &molecule.atoms[1]);
     let closed_form = spec.is_slater_1s() && a.element == b.element;
     if args.optimize_zeta && !closed_form {
-        return Err(Error::input("--optimize-zeta works with the slater-1s set on two identical atoms"));
+        return Err(Error::input(
+            "--optimize-zeta works with the slater-1s set on two identical atoms",
+        ));
     }
     let doc = if closed_form {
         let Shell::Slater(s) = &model.basis.shells[0] else {
             return Err(Error::internal("slater-1s without a Slater shell"));
         };
-        let choice = if args.optimize_zeta { ZetaChoice::Optimized } else { ZetaChoice::Fixed(s.zeta) };
+        let choice = if args.optimize_zeta {
+            ZetaChoice::Optimized
+        } else {
+            ZetaChoice::Fixed(s.zeta)
+        };
         let z = a.charge();
         let points = curve::scan(z, choice, &rs);
         let eq = curve::equilibrium(z, choice, &points);
-        report::TwoCentre { model: &model, z, choice, points, eq }.into_document()
+        report::TwoCentre {
+            model: &model,
+            z,
+            choice,
+            points,
+            eq,
+        }
+        .into_document()
     } else {
         if args.states == 0 {
             return Err(Error::input("--states must be at least 1"));
         }
         let points = curve::scan_states(molecule, spec, &rs, args.states)?;
         let eq = curve::states_equilibrium(molecule, spec, &points)?;
-        report::States { model: &model, points, eq }.into_document()
+        report::States {
+            model: &model,
+            points,
+            eq,
+        }
+        .into_document()
     };
     print!("{}", doc.table);
     println!("{}", doc.equilibrium_line);

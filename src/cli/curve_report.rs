@@ -60,7 +60,8 @@ fn json_text<P: Serialize>(doc: &Json<P>) -> String {
 
 fn equilibrium_line(eq: Option<(f64, f64, Option<f64>)>, limit: f64) -> String {
     let Some((r, e, zeta)) = eq else {
-        return "no minimum inside the scan: the lowest energy is at an end; widen --from/--to".into();
+        return "no minimum inside the scan: the lowest energy is at an end; widen --from/--to"
+            .into();
     };
     let de = limit - e;
     format!(
@@ -116,7 +117,11 @@ impl TwoCentre<'_> {
             "K/hartree",
             "E+/hartree",
             "E-/hartree",
-            if opt { format!(" {:>8}", "ζ") } else { String::new() }
+            if opt {
+                format!(" {:>8}", "ζ")
+            } else {
+                String::new()
+            }
         );
         let mut csv = format!(
             "# lobecast {} energy curve: two identical nuclei of charge Z = {}, one electron, one normalised 1s Slater function per nucleus, zeta = {zeta_text}\n\
@@ -164,7 +169,9 @@ impl TwoCentre<'_> {
             length_unit: "bohr",
             energy_unit: "hartree",
             separated_limit_hartree: limit,
-            equilibrium: self.eq.map(|e| EquilibriumJson::new(e.r, e.energy, limit, Some(e.zeta))),
+            equilibrium: self
+                .eq
+                .map(|e| EquilibriumJson::new(e.r, e.energy, limit, Some(e.zeta))),
             points: self
                 .points
                 .iter()
@@ -182,7 +189,13 @@ impl TwoCentre<'_> {
             notes: vec![MINIMAL_BASIS_CAVEAT.to_string()],
         });
         let eq = self.eq.map(|e| (e.r, e.energy, opt.then_some(e.zeta)));
-        Document { table, equilibrium_line: equilibrium_line(eq, limit), csv, json, minimal_basis: true }
+        Document {
+            table,
+            equilibrium_line: equilibrium_line(eq, limit),
+            csv,
+            json,
+            minimal_basis: true,
+        }
     }
 }
 
@@ -246,13 +259,23 @@ impl States<'_> {
             length_unit: "bohr",
             energy_unit: "hartree",
             separated_limit_hartree: limit,
-            equilibrium: self.eq.map(|(r, e)| EquilibriumJson::new(r, e, limit, None)),
+            equilibrium: self
+                .eq
+                .map(|(r, e)| EquilibriumJson::new(r, e, limit, None)),
             points: self
                 .points
                 .iter()
-                .map(|p| StatesJsonPoint { r_bohr: p.r, r_angstrom: bohr_to_angstrom(p.r), energies_hartree: p.energies.clone() })
+                .map(|p| StatesJsonPoint {
+                    r_bohr: p.r,
+                    r_angstrom: bohr_to_angstrom(p.r),
+                    energies_hartree: p.energies.clone(),
+                })
                 .collect(),
-            notes: if minimal { vec![MINIMAL_BASIS_CAVEAT.to_string()] } else { Vec::new() },
+            notes: if minimal {
+                vec![MINIMAL_BASIS_CAVEAT.to_string()]
+            } else {
+                Vec::new()
+            },
         });
         Document {
             table,

@@ -35,7 +35,11 @@ pub fn run(args: SolveArgs) -> Result<()> {
     print!("{}", table(&set));
     print_notes(&set.notes);
     if let Some(path) = &args.json {
-        crate::output::write_bytes(path, &model.inputs, crate::solve::orbital_file::to_json(&set).as_bytes())?;
+        crate::output::write_bytes(
+            path,
+            &model.inputs,
+            crate::solve::orbital_file::to_json(&set).as_bytes(),
+        )?;
         eprintln!("wrote {}", path.display());
     }
     Ok(())
@@ -72,7 +76,12 @@ fn character(set: &OrbitalSet, c: &[f64]) -> String {
         .filter(|&&m| c[m].abs() > 1e-3)
         .map(|&m| {
             let (atom, label) = &labels[m];
-            format!("{}{} {label} {:+.4}", set.molecule.atoms[*atom].element.symbol, atom + 1, c[m])
+            format!(
+                "{}{} {label} {:+.4}",
+                set.molecule.atoms[*atom].element.symbol,
+                atom + 1,
+                c[m]
+            )
         })
         .collect::<Vec<_>>()
         .join(", ")

@@ -122,9 +122,12 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let bar = progress_bar(&grid);
     {
         let mut w = BufWriter::with_capacity(1 << 20, out.file());
-        write_streaming(&header, |s, v| sampler.evaluate_slab(s, v), &mut w, &|done| {
-            bar.set_position(done as u64)
-        })?;
+        write_streaming(
+            &header,
+            |s, v| sampler.evaluate_slab(s, v),
+            &mut w,
+            &|done| bar.set_position(done as u64),
+        )?;
     }
     bar.finish_and_clear();
     out.commit()?;

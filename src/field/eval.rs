@@ -34,13 +34,18 @@ impl FieldSampler {
         let mut resolved = Vec::with_capacity(fields.len());
         for f in fields {
             let index = f.selector().map(|s| s.resolve(&set.orbitals)).transpose()?;
-            let coeffs = || set.orbitals[index.expect("orbital field")].coefficients.clone();
+            let coeffs = || {
+                set.orbitals[index.expect("orbital field")]
+                    .coefficients
+                    .clone()
+            };
             resolved.push(match f {
                 Field::Orbital(_) => Resolved::Orbital(coeffs()),
                 Field::OrbitalDensity(_) => Resolved::OrbitalDensity(coeffs()),
-                Field::OrbitalDeformation(_) => {
-                    Resolved::OrbitalDeformation(coeffs(), set.gross_populations(index.expect("orbital field"))?)
-                }
+                Field::OrbitalDeformation(_) => Resolved::OrbitalDeformation(
+                    coeffs(),
+                    set.gross_populations(index.expect("orbital field"))?,
+                ),
                 Field::Density => Resolved::Density(
                     set.orbitals
                         .iter()
@@ -93,7 +98,11 @@ impl FieldSampler {
     /// From basis values (functions × points) to the interleaved field values.
     fn combine_fields(&self, phi: &[f64], n: usize, out: &mut [f64]) {
         let nf = self.fields.len();
-        assert_eq!(out.len(), n * nf, "output buffer must hold points × fields values");
+        assert_eq!(
+            out.len(),
+            n * nf,
+            "output buffer must hold points × fields values"
+        );
         let mut psi = vec![0.0; n];
         for (k, field) in self.fields.iter().enumerate() {
             match field {
@@ -108,7 +117,11 @@ impl FieldSampler {
                 Resolved::OrbitalDeformation(c, q) => {
                     combine(phi, c, n, &mut psi);
                     for (p, v) in psi.iter_mut().enumerate() {
-                        let atomic: f64 = q.iter().enumerate().map(|(m, qm)| qm * phi[m * n + p] * phi[m * n + p]).sum();
+                        let atomic: f64 = q
+                            .iter()
+                            .enumerate()
+                            .map(|(m, qm)| qm * phi[m * n + p] * phi[m * n + p])
+                            .sum();
                         *v = *v * *v - atomic;
                     }
                     scatter(out, nf, k, psi.iter().copied());

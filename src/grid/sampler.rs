@@ -32,8 +32,12 @@ where
 {
     let nx = grid.counts[0];
     let aligned = grid.is_axis_aligned();
-    let ys: Vec<f64> = (0..grid.counts[1]).map(|j| grid.point(0, j, 0)[1]).collect();
-    let zs: Vec<f64> = (0..grid.counts[2]).map(|k| grid.point(0, 0, k)[2]).collect();
+    let ys: Vec<f64> = (0..grid.counts[1])
+        .map(|j| grid.point(0, j, 0)[1])
+        .collect();
+    let zs: Vec<f64> = (0..grid.counts[2])
+        .map(|k| grid.point(0, 0, k)[2])
+        .collect();
     let batch = (2 * rayon::current_num_threads()).max(2);
     let mut start = 0;
     while start < nx {
@@ -45,7 +49,13 @@ where
                 grid.slab_points(i, &mut points);
                 let mut values = vec![0.0; points.len() * per_point];
                 let lattice = aligned.then(|| (grid.point(i, 0, 0)[0], &ys[..], &zs[..]));
-                eval(&Slab { points: &points, lattice }, &mut values);
+                eval(
+                    &Slab {
+                        points: &points,
+                        lattice,
+                    },
+                    &mut values,
+                );
                 post(&values)
             })
             .collect();

@@ -18,7 +18,12 @@ pub struct OneElectronMatrices {
 }
 
 fn cartesian(g: &GaussianShell) -> CartesianShell<'_> {
-    CartesianShell { l: g.l, center: g.center, exponents: &g.exponents, coefficients: &g.d }
+    CartesianShell {
+        l: g.l,
+        center: g.center,
+        exponents: &g.exponents,
+        coefficients: &g.d,
+    }
 }
 
 /// rowsₐ · C · rows_bᵀ: from Cartesian components to the shells' own functions.
@@ -51,10 +56,19 @@ fn gaussians(basis: &Basis) -> Option<Vec<&GaussianShell>> {
 }
 
 /// Fills symmetric matrices from the upper-triangle shell pairs, computed in parallel.
-fn build(basis: &Basis, shells: &[&GaussianShell], block: impl Fn(&GaussianShell, &GaussianShell) -> Vec<f64> + Sync) -> DMatrix<f64> {
+fn build(
+    basis: &Basis,
+    shells: &[&GaussianShell],
+    block: impl Fn(&GaussianShell, &GaussianShell) -> Vec<f64> + Sync,
+) -> DMatrix<f64> {
     let offsets = basis.offsets();
-    let pairs: Vec<(usize, usize)> = (0..shells.len()).flat_map(|i| (i..shells.len()).map(move |j| (i, j))).collect();
-    let blocks: Vec<Vec<f64>> = pairs.par_iter().map(|&(i, j)| block(shells[i], shells[j])).collect();
+    let pairs: Vec<(usize, usize)> = (0..shells.len())
+        .flat_map(|i| (i..shells.len()).map(move |j| (i, j)))
+        .collect();
+    let blocks: Vec<Vec<f64>> = pairs
+        .par_iter()
+        .map(|&(i, j)| block(shells[i], shells[j]))
+        .collect();
     let n = basis.len();
     let mut m = DMatrix::zeros(n, n);
     for (&(i, j), b) in pairs.iter().zip(&blocks) {
@@ -72,9 +86,16 @@ fn build(basis: &Basis, shells: &[&GaussianShell], block: impl Fn(&GaussianShell
 
 /// S and H for an all-Gaussian basis, any geometry.
 pub fn gaussian_matrices(molecule: &Molecule, basis: &Basis) -> Result<OneElectronMatrices> {
-    let shells = gaussians(basis).ok_or_else(|| Error::input("analytic integrals need an all-Gaussian basis"))?;
-    let nuclei: Vec<(f64, [f64; 3])> = molecule.atoms.iter().map(|a| (a.charge(), a.position)).collect();
-    let overlap = build(basis, &shells, |a, b| transform(a, b, &overlap_block(&cartesian(a), &cartesian(b))));
+    let shells = gaussians(basis)
+        .ok_or_else(|| Error::input("analytic integrals need an all-Gaussian basis"))?;
+    let nuclei: Vec<(f64, [f64; 3])> = molecule
+        .atoms
+        .iter()
+        .map(|a| (a.charge(), a.position))
+        .collect();
+    let overlap = build(basis, &shells, |a, b| {
+        transform(a, b, &overlap_block(&cartesian(a), &cartesian(b)))
+    });
     let enn = molecule.nuclear_repulsion();
     let core = build(basis, &shells, |a, b| {
         let (ca, cb) = (cartesian(a), cartesian(b));
@@ -84,7 +105,10 @@ pub fn gaussian_matrices(molecule: &Molecule, basis: &Basis) -> Result<OneElectr
         transform(a, b, &sum)
     });
     let hamiltonian = core + &overlap * enn;
-    Ok(OneElectronMatrices { overlap, hamiltonian })
+    Ok(OneElectronMatrices {
+        overlap,
+        hamiltonian,
+    })
 }
 
 /// S and H for one 1s Slater function per atom, where closed forms exist: one atom,
@@ -98,13 +122,18 @@ pub fn slater_1s_matrices(molecule: &Molecule, basis: &Basis) -> Result<OneElect
         .iter()
         .map(|s| match s {
             Shell::Slater(s) if s.is_1s() => Ok(s.zeta),
-            _ => Err(Error::input("slater-1s matrices need 1s Slater functions only")),
+            _ => Err(Error::input(
+                "slater-1s matrices need 1s Slater functions only",
+            )),
         })
         .collect::<Result<_>>()?;
     match (molecule.atoms.as_slice(), zetas.as_slice()) {
         ([a], [zeta]) => {
             let e = 0.5 * zeta * zeta - a.charge() * zeta;
-            Ok(OneElectronMatrices { overlap: DMatrix::from_element(1, 1, 1.0), hamiltonian: DMatrix::from_element(1, 1, e) })
+            Ok(OneElectronMatrices {
+                overlap: DMatrix::from_element(1, 1, 1.0),
+                hamiltonian: DMatrix::from_element(1, 1, e),
+            })
         }
         ([a, b], [za, zb]) => {
             if a.element != b.element || za != zb {
@@ -120,7 +149,11 @@ pub fn slater_1s_matrices(molecule: &Molecule, basis: &Basis) -> Result<OneElect
                 hamiltonian: DMatrix::from_row_slice(2, 2, &[m.h_aa, m.h_ab, m.h_ab, m.h_aa]),
             })
         }
-        _ => Err(Error::input(format!("slater-1s cannot treat a molecule of {} atoms", molecule.atoms.len())).with_hint(why)),
+        _ => Err(Error::input(format!(
+            "slater-1s cannot treat a molecule of {} atoms",
+            molecule.atoms.len()
+        ))
+        .with_hint(why)),
     }
 }
 
@@ -129,7 +162,9 @@ pub fn slater_1s_matrices(molecule: &Molecule, basis: &Basis) -> Result<OneElect
 /// `None` otherwise; fields that need it (Mulliken populations) then say so.
 pub fn overlap_matrix(_molecule: &Molecule, basis: &Basis) -> Option<DMatrix<f64>> {
     if let Some(shells) = gaussians(basis) {
-        return Some(build(basis, &shells, |a, b| transform(a, b, &overlap_block(&cartesian(a), &cartesian(b)))));
+        return Some(build(basis, &shells, |a, b| {
+            transform(a, b, &overlap_block(&cartesian(a), &cartesian(b)))
+        }));
     }
     let s1: Vec<_> = basis
         .shells

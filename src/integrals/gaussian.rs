@@ -10,18 +10,8 @@ use std::f64::consts::PI;
 
 use super::hermite::{Hermite1d, HermiteCoulomb, MAX_L};
 
-/// Cartesian components of angular momentum l in the standard order: (l,0,0),
-/// (l-1,1,0), (l-1,0,1), (l-2,2,0), (l-2,1,1), (l-2,0,2), … (x power descending,
-/// then y descending).
-pub fn cartesian_components(l: u32) -> Vec<[u32; 3]> {
-    let mut out = Vec::with_capacity(((l + 1) * (l + 2) / 2) as usize);
-    for a in (0..=l).rev() {
-        for b in (0..=l - a).rev() {
-            out.push([a, b, l - a - b]);
-        }
-    }
-    out
-}
+/// Component order is the one `basis::harmonics` defines for every shell.
+pub use crate::basis::harmonics::cartesian_components;
 
 /// One contracted Cartesian shell: every component x^a y^b z^c (a+b+c = l) times
 /// Σ_k d_k exp(−α_k |r−center|²), with the d_k given as they are (no normalisation

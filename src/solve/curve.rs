@@ -142,26 +142,52 @@ pub fn at_separation(template: &crate::chem::Molecule, r: f64) -> Result<crate::
 }
 
 /// The `states` lowest one-electron energies at separation `r` in the basis `spec`.
-pub fn states_at(template: &crate::chem::Molecule, spec: &crate::basis::BasisSpec, r: f64, states: usize) -> Result<Vec<f64>> {
+pub fn states_at(
+    template: &crate::chem::Molecule,
+    spec: &crate::basis::BasisSpec,
+    r: f64,
+    states: usize,
+) -> Result<Vec<f64>> {
     let molecule = at_separation(template, r)?;
     let basis = spec.build(&molecule)?;
     let set = super::one_electron::solve(&molecule, &basis)?;
     if set.orbitals.len() < states {
-        return Err(Error::input(format!("--states {states} asks for more states than the basis has functions ({})", set.orbitals.len())));
+        return Err(Error::input(format!(
+            "--states {states} asks for more states than the basis has functions ({})",
+            set.orbitals.len()
+        )));
     }
     Ok(set.orbitals.iter().take(states).map(|o| o.energy).collect())
 }
 
 /// Scans the lowest `states` energies over `rs` (in parallel: each R is a full solve).
-pub fn scan_states(template: &crate::chem::Molecule, spec: &crate::basis::BasisSpec, rs: &[f64], states: usize) -> Result<Vec<StatesPoint>> {
+pub fn scan_states(
+    template: &crate::chem::Molecule,
+    spec: &crate::basis::BasisSpec,
+    rs: &[f64],
+    states: usize,
+) -> Result<Vec<StatesPoint>> {
     use rayon::prelude::*;
-    rs.par_iter().map(|&r| Ok(StatesPoint { r, energies: states_at(template, spec, r, states)? })).collect()
+    rs.par_iter()
+        .map(|&r| {
+            Ok(StatesPoint {
+                r,
+                energies: states_at(template, spec, r, states)?,
+            })
+        })
+        .collect()
 }
 
 /// The minimum of the lowest state, refined between the samples either side of the
 /// lowest one; `None` when the scan does not bracket it.
-pub fn states_equilibrium(template: &crate::chem::Molecule, spec: &crate::basis::BasisSpec, points: &[StatesPoint]) -> Result<Option<(f64, f64)>> {
-    let Some(best) = (0..points.len()).min_by(|&a, &b| points[a].energies[0].total_cmp(&points[b].energies[0])) else {
+pub fn states_equilibrium(
+    template: &crate::chem::Molecule,
+    spec: &crate::basis::BasisSpec,
+    points: &[StatesPoint],
+) -> Result<Option<(f64, f64)>> {
+    let Some(best) =
+        (0..points.len()).min_by(|&a, &b| points[a].energies[0].total_cmp(&points[b].energies[0]))
+    else {
         return Ok(None);
     };
     if best == 0 || best + 1 == points.len() {

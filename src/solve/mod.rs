@@ -18,6 +18,8 @@ pub fn orbitals_for(model: &Model) -> Result<OrbitalSet> {
     match (model.method, &model.orbitals) {
         (Method::OneElectron, _) => one_electron::solve(&model.molecule, &model.basis),
         (Method::File, Some(set)) => Ok(set.clone()),
-        (Method::File, None) => Err(crate::error::Error::internal("a file model without its orbitals")),
+        (Method::File, None) => Err(crate::error::Error::internal(
+            "a file model without its orbitals",
+        )),
     }
 }

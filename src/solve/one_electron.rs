@@ -22,7 +22,11 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         ))
         .with_hint("for more electrons use [orbitals] method = \"file\" with orbitals from another program (or extended Hückel once available); for one electron set charge so that nuclear charges minus charge = 1"));
     }
-    let matrices = if basis.all_gaussian() { gaussian_matrices(molecule, basis)? } else { slater_1s_matrices(molecule, basis)? };
+    let matrices = if basis.all_gaussian() {
+        gaussian_matrices(molecule, basis)?
+    } else {
+        slater_1s_matrices(molecule, basis)?
+    };
     let eigen = generalized_symmetric(
         &matrices.hamiltonian,
         &matrices.overlap,
@@ -41,7 +45,11 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         })
         .collect();
     let minimal = basis.name == "slater-1s" || basis.name.starts_with("sto-");
-    let mut notes = if minimal { vec![MINIMAL_BASIS_CAVEAT.to_string()] } else { Vec::new() };
+    let mut notes = if minimal {
+        vec![MINIMAL_BASIS_CAVEAT.to_string()]
+    } else {
+        Vec::new()
+    };
     if eigen.dropped > 0 {
         notes.push(format!(
             "{} near-linear-dependent combination(s) of the basis were dropped",

@@ -42,7 +42,13 @@ struct AtomEntry {
 #[derive(Debug, Serialize, Deserialize)]
 #[serde(tag = "type", rename_all = "lowercase", deny_unknown_fields)]
 enum BasisEntry {
-    Slater { atom: usize, n: u32, l: u32, m: i32, zeta: f64 },
+    Slater {
+        atom: usize,
+        n: u32,
+        l: u32,
+        m: i32,
+        zeta: f64,
+    },
     Gaussian {
         atom: usize,
         #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -71,52 +77,109 @@ pub fn read(path: &Path) -> Result<OrbitalSet> {
 }
 
 pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
-    let doc: Doc = serde_json::from_str(text)
-        .map_err(|e| Error::input(format!("{name} line {} column {}: {}", e.line(), e.column(), strip_position(&e.to_string()))))?;
+    let doc: Doc = serde_json::from_str(text).map_err(|e| {
+        Error::input(format!(
+            "{name} line {} column {}: {}",
+            e.line(),
+            e.column(),
+            strip_position(&e.to_string())
+        ))
+    })?;
     let bad = |field: String, msg: String| Error::input(format!("{name}: {field}: {msg}"));
     if doc.format != FORMAT {
-        return Err(bad("format".into(), format!("expected {FORMAT:?}, found {:?}", doc.format)));
+        return Err(bad(
+            "format".into(),
+            format!("expected {FORMAT:?}, found {:?}", doc.format),
+        ));
     }
     if doc.version != VERSION {
-        return Err(bad("version".into(), format!("this lobecast reads version {VERSION}, found {}", doc.version)));
+        return Err(bad(
+            "version".into(),
+            format!(
+                "this lobecast reads version {VERSION}, found {}",
+                doc.version
+            ),
+        ));
     }
     let length = match doc.length_unit.as_str() {
         "bohr" => 1.0,
         "angstrom" => 1.0 / BOHR_IN_ANGSTROM,
-        u => return Err(bad("length_unit".into(), format!("expected \"bohr\" or \"angstrom\", found {u:?}"))),
+        u => {
+            return Err(bad(
+                "length_unit".into(),
+                format!("expected \"bohr\" or \"angstrom\", found {u:?}"),
+            ));
+        }
     };
     let energy = match doc.energy_unit.as_str() {
         "hartree" => 1.0,
         "ev" => 1.0 / HARTREE_IN_EV,
-        u => return Err(bad("energy_unit".into(), format!("expected \"hartree\" or \"ev\", found {u:?}"))),
+        u => {
+            return Err(bad(
+                "energy_unit".into(),
+                format!("expected \"hartree\" or \"ev\", found {u:?}"),
+            ));
+        }
     };
     let mut atoms = Vec::with_capacity(doc.atoms.len());
     for (i, a) in doc.atoms.iter().enumerate() {
-        let element = elements::by_symbol(&a.element)
-            .ok_or_else(|| bad(format!("atoms[{i}].element"), format!("unknown element {:?}", a.element)))?;
+        let element = elements::by_symbol(&a.element).ok_or_else(|| {
+            bad(
+                format!("atoms[{i}].element"),
+                format!("unknown element {:?}", a.element),
+            )
+        })?;
         if element.atomic_number != a.atomic_number {
-            return Err(bad(format!("atoms[{i}].atomic_number"), format!("{} is {} but the file says {}", a.element, element.atomic_number, a.atomic_number)));
+            return Err(bad(
+                format!("atoms[{i}].atomic_number"),
+                format!(
+                    "{} is {} but the file says {}",
+                    a.element, element.atomic_number, a.atomic_number
+                ),
+            ));
         }
         if a.position.iter().any(|x| !x.is_finite()) {
             return Err(bad(format!("atoms[{i}].position"), "not finite".into()));
         }
-        atoms.push(Atom { element, position: a.position.map(|x| x * length) });
+        atoms.push(Atom {
+            element,
+            position: a.position.map(|x| x * length),
+        });
     }
     let shells = basis_shells(&doc.basis, &atoms, length).map_err(|(f, m)| bad(f, m))?;
-    let basis = Basis { name: "orbital file".into(), shells };
+    let basis = Basis {
+        name: "orbital file".into(),
+        shells,
+    };
     let nbf = basis.len();
     let mut orbitals = Vec::with_capacity(doc.orbitals.len());
     for (i, o) in doc.orbitals.iter().enumerate() {
         if o.coefficients.len() != nbf {
-            return Err(bad(format!("orbitals[{i}].coefficients"), format!("has {} entries but the basis has {nbf} functions", o.coefficients.len())));
+            return Err(bad(
+                format!("orbitals[{i}].coefficients"),
+                format!(
+                    "has {} entries but the basis has {nbf} functions",
+                    o.coefficients.len()
+                ),
+            ));
         }
         if !o.energy.is_finite() || o.coefficients.iter().any(|c| !c.is_finite()) {
-            return Err(bad(format!("orbitals[{i}]"), "energy and coefficients must be finite numbers".into()));
+            return Err(bad(
+                format!("orbitals[{i}]"),
+                "energy and coefficients must be finite numbers".into(),
+            ));
         }
         if !(0.0..=2.0).contains(&o.occupation) {
-            return Err(bad(format!("orbitals[{i}].occupation"), format!("must be between 0 and 2, found {}", o.occupation)));
+            return Err(bad(
+                format!("orbitals[{i}].occupation"),
+                format!("must be between 0 and 2, found {}", o.occupation),
+            ));
         }
-        orbitals.push(Orbital { energy: o.energy * energy, occupation: o.occupation, coefficients: o.coefficients.clone() });
+        orbitals.push(Orbital {
+            energy: o.energy * energy,
+            occupation: o.occupation,
+            coefficients: o.coefficients.clone(),
+        });
     }
     if orbitals.is_empty() {
         return Err(bad("orbitals".into(), "the file holds no orbitals".into()));
@@ -128,7 +191,8 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     }
     let electrons: f64 = orbitals.iter().map(|o| o.occupation).sum();
     let nuclear: f64 = atoms.iter().map(Atom::charge).sum();
-    let molecule = Molecule::new(atoms, (nuclear - electrons).round() as i32).map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    let molecule = Molecule::new(atoms, (nuclear - electrons).round() as i32)
+        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
     let overlap = crate::integrals::overlap_matrix(&molecule, &basis);
     Ok(OrbitalSet {
         molecule,
@@ -142,52 +206,113 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
 
 /// serde_json appends " at line L column C"; we print the position first instead.
 fn strip_position(msg: &str) -> String {
-    msg.rsplit_once(" at line ").map_or(msg, |(m, _)| m).to_string()
+    msg.rsplit_once(" at line ")
+        .map_or(msg, |(m, _)| m)
+        .to_string()
 }
 
 /// Builds shells from per-function entries, merging consecutive functions that share
 /// centre, kind, l and radial part, so grid evaluation can work shell by shell.
-fn basis_shells(entries: &[BasisEntry], atoms: &[Atom], length: f64) -> std::result::Result<Vec<Shell>, (String, String)> {
+fn basis_shells(
+    entries: &[BasisEntry],
+    atoms: &[Atom],
+    length: f64,
+) -> std::result::Result<Vec<Shell>, (String, String)> {
     let mut shells: Vec<Shell> = Vec::new();
     for (i, e) in entries.iter().enumerate() {
         let field = |f: &str| format!("basis[{i}].{f}");
-        let atom_of = |a: usize| atoms.get(a).ok_or_else(|| (field("atom"), format!("no atom {a}: the file lists {} atoms (numbered from 0)", atoms.len())));
+        let atom_of = |a: usize| {
+            atoms.get(a).ok_or_else(|| {
+                (
+                    field("atom"),
+                    format!(
+                        "no atom {a}: the file lists {} atoms (numbered from 0)",
+                        atoms.len()
+                    ),
+                )
+            })
+        };
         match e {
-            BasisEntry::Slater { atom, n, l, m, zeta } => {
+            BasisEntry::Slater {
+                atom,
+                n,
+                l,
+                m,
+                zeta,
+            } => {
                 let c = atom_of(*atom)?.position;
                 let zeta = zeta / length;
                 if let Some(Shell::Slater(s)) = shells.last_mut() {
-                    if s.atom == *atom && s.n == *n && s.l == *l && s.zeta == zeta && !s.ms.contains(m) {
+                    if s.atom == *atom
+                        && s.n == *n
+                        && s.l == *l
+                        && s.zeta == zeta
+                        && !s.ms.contains(m)
+                    {
                         let mut ms = s.ms.clone();
                         ms.push(*m);
-                        *s = SlaterShell::new(*atom, c, *n, *l, zeta, ms).map_err(|e| (format!("basis[{i}]"), e.message))?;
+                        *s = SlaterShell::new(*atom, c, *n, *l, zeta, ms)
+                            .map_err(|e| (format!("basis[{i}]"), e.message))?;
                         continue;
                     }
                 }
-                let s = SlaterShell::new(*atom, c, *n, *l, zeta, vec![*m]).map_err(|e| (format!("basis[{i}]"), e.message))?;
+                let s = SlaterShell::new(*atom, c, *n, *l, zeta, vec![*m])
+                    .map_err(|e| (format!("basis[{i}]"), e.message))?;
                 shells.push(Shell::Slater(s));
             }
-            BasisEntry::Gaussian { atom, powers, l, m, primitives } => {
+            BasisEntry::Gaussian {
+                atom,
+                powers,
+                l,
+                m,
+                primitives,
+            } => {
                 let c = atom_of(*atom)?.position;
                 let (lv, ang) = match (powers, l, m) {
                     (Some(p), None, None) => (p.iter().sum::<u32>(), Angular::Cartesian(*p)),
                     (None, Some(l), Some(m)) => (*l, Angular::Pure(*m)),
-                    _ => return Err((format!("basis[{i}]"), "a gaussian needs either \"powers\" or both \"l\" and \"m\"".into())),
+                    _ => {
+                        return Err((
+                            format!("basis[{i}]"),
+                            "a gaussian needs either \"powers\" or both \"l\" and \"m\"".into(),
+                        ));
+                    }
                 };
-                let prims: Vec<(f64, f64)> = primitives.iter().map(|p| (p[0] / (length * length), p[1])).collect();
-                if let Some((k, p)) = prims.iter().enumerate().find(|(_, p)| !(p.0.is_finite() && p.0 > 0.0)) {
-                    return Err((format!("basis[{i}].primitives[{k}]"), format!("exponent must be positive, found {}", p.0)));
+                let prims: Vec<(f64, f64)> = primitives
+                    .iter()
+                    .map(|p| (p[0] / (length * length), p[1]))
+                    .collect();
+                if let Some((k, p)) = prims
+                    .iter()
+                    .enumerate()
+                    .find(|(_, p)| !(p.0.is_finite() && p.0 > 0.0))
+                {
+                    return Err((
+                        format!("basis[{i}].primitives[{k}]"),
+                        format!("exponent must be positive, found {}", p.0),
+                    ));
                 }
                 if let Some(Shell::Gaussian(g)) = shells.last_mut() {
-                    let same_kind = matches!((g.functions[0], ang), (Angular::Cartesian(_), Angular::Cartesian(_)) | (Angular::Pure(_), Angular::Pure(_)));
-                    if g.atom == *atom && g.l == lv && g.primitives == prims && same_kind && !g.functions.contains(&ang) {
+                    let same_kind = matches!(
+                        (g.functions[0], ang),
+                        (Angular::Cartesian(_), Angular::Cartesian(_))
+                            | (Angular::Pure(_), Angular::Pure(_))
+                    );
+                    if g.atom == *atom
+                        && g.l == lv
+                        && g.primitives == prims
+                        && same_kind
+                        && !g.functions.contains(&ang)
+                    {
                         let mut fs = g.functions.clone();
                         fs.push(ang);
-                        *g = GaussianShell::new(*atom, c, lv, prims, fs).map_err(|e| (format!("basis[{i}]"), e.message))?;
+                        *g = GaussianShell::new(*atom, c, lv, prims, fs)
+                            .map_err(|e| (format!("basis[{i}]"), e.message))?;
                         continue;
                     }
                 }
-                let g = GaussianShell::new(*atom, c, lv, prims, vec![ang]).map_err(|e| (format!("basis[{i}]"), e.message))?;
+                let g = GaussianShell::new(*atom, c, lv, prims, vec![ang])
+                    .map_err(|e| (format!("basis[{i}]"), e.message))?;
                 shells.push(Shell::Gaussian(g));
             }
         }
@@ -204,17 +329,39 @@ pub fn to_json(set: &OrbitalSet) -> String {
         .molecule
         .atoms
         .iter()
-        .map(|a| AtomEntry { element: a.element.symbol.into(), atomic_number: a.element.atomic_number, position: a.position })
+        .map(|a| AtomEntry {
+            element: a.element.symbol.into(),
+            atomic_number: a.element.atomic_number,
+            position: a.position,
+        })
         .collect();
     let mut basis = Vec::with_capacity(set.basis.len());
     for shell in &set.basis.shells {
         match shell {
-            Shell::Slater(s) => basis.extend(s.ms.iter().map(|&m| BasisEntry::Slater { atom: s.atom, n: s.n, l: s.l, m, zeta: s.zeta })),
+            Shell::Slater(s) => basis.extend(s.ms.iter().map(|&m| BasisEntry::Slater {
+                atom: s.atom,
+                n: s.n,
+                l: s.l,
+                m,
+                zeta: s.zeta,
+            })),
             Shell::Gaussian(g) => basis.extend(g.functions.iter().map(|f| {
                 let primitives = g.primitives.iter().map(|&(a, c)| [a, c]).collect();
                 match *f {
-                    Angular::Cartesian(p) => BasisEntry::Gaussian { atom: g.atom, powers: Some(p), l: None, m: None, primitives },
-                    Angular::Pure(m) => BasisEntry::Gaussian { atom: g.atom, powers: None, l: Some(g.l), m: Some(m), primitives },
+                    Angular::Cartesian(p) => BasisEntry::Gaussian {
+                        atom: g.atom,
+                        powers: Some(p),
+                        l: None,
+                        m: None,
+                        primitives,
+                    },
+                    Angular::Pure(m) => BasisEntry::Gaussian {
+                        atom: g.atom,
+                        powers: None,
+                        l: Some(g.l),
+                        m: Some(m),
+                        primitives,
+                    },
                 }
             })),
         }
@@ -230,7 +377,11 @@ pub fn to_json(set: &OrbitalSet) -> String {
         orbitals: set
             .orbitals
             .iter()
-            .map(|o| OrbitalEntry { energy: o.energy, occupation: o.occupation, coefficients: o.coefficients.clone() })
+            .map(|o| OrbitalEntry {
+                energy: o.energy,
+                occupation: o.occupation,
+                coefficients: o.coefficients.clone(),
+            })
             .collect(),
         notes: set.notes.clone(),
     };

@@ -49,7 +49,9 @@ impl OrbitalSet {
             )
         })?;
         let c = &self.orbitals[index].coefficients;
-        Ok((0..c.len()).map(|m| c[m] * (0..c.len()).map(|n| s[(m, n)] * c[n]).sum::<f64>()).collect())
+        Ok((0..c.len())
+            .map(|m| c[m] * (0..c.len()).map(|n| s[(m, n)] * c[n]).sum::<f64>())
+            .collect())
     }
 }
 
