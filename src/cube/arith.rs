@@ -4,8 +4,9 @@
 
 use std::io::Write;
 
+use super::format::push_e13;
 use super::reader::CubeReader;
-use super::writer::{CubeAtom, CubeHeader, format_slab};
+use super::writer::{CubeAtom, CubeHeader, PER_LINE, WIDTH};
 use crate::error::{Error, Result};
 use crate::grid::GridBox;
 
@@ -80,7 +81,9 @@ pub struct Term {
 }
 
 /// Writes `header` (a single field on the terms' common grid) and then Σ wᵢ fᵢ point
-/// by point. The grids must already have been compared.
+/// by point, in the writer's layout (six per line, a new line after each row). The
+/// grids must already have been compared. Chunks hold about 64 k points, whatever
+/// the row length or number of fields.
 pub fn write_weighted_sum<W: Write>(
     header: &CubeHeader,
     terms: &mut [Term],
@@ -89,18 +92,17 @@ pub fn write_weighted_sum<W: Write>(
     let io = |e: std::io::Error| Error::internal(format!("writing the cube file failed: {e}"));
     out.write_all(header.text().as_bytes()).map_err(io)?;
     let row = header.grid.counts[2];
-    let rows_total = header.grid.counts[0] * header.grid.counts[1];
-    let rows_per_chunk = (65_536 / row).max(1);
-    let mut sum = vec![0.0; rows_per_chunk * row];
-    let mut buf = Vec::new();
+    let total = header.grid.point_count();
+    let chunk = 65_536usize;
+    let mut sum = vec![0.0; chunk];
+    let mut buf = Vec::with_capacity(chunk * (WIDTH + 1));
     let mut bufs: Vec<Vec<f64>> = terms
         .iter()
-        .map(|t| vec![0.0; rows_per_chunk * row * t.reader.info().fields])
+        .map(|t| vec![0.0; chunk * t.reader.info().fields])
         .collect();
-    let mut done = 0;
-    while done < rows_total {
-        let rows = rows_per_chunk.min(rows_total - done);
-        let points = rows * row;
+    let (mut done, mut in_row) = (0, 0);
+    while done < total {
+        let points = chunk.min(total - done);
         sum[..points].fill(0.0);
         for (t, b) in terms.iter_mut().zip(&mut bufs) {
             let f = t.reader.info().fields;
@@ -117,9 +119,18 @@ pub fn write_weighted_sum<W: Write>(
             }
         }
         buf.clear();
-        format_slab(&sum[..points], row, &mut buf);
+        for &v in &sum[..points] {
+            push_e13(&mut buf, v);
+            in_row += 1;
+            if in_row == row || in_row % PER_LINE == 0 {
+                buf.push(b'\n');
+            }
+            if in_row == row {
+                in_row = 0;
+            }
+        }
         out.write_all(&buf).map_err(io)?;
-        done += rows;
+        done += points;
     }
     // The last read_values of each term has already refused surplus values.
     out.flush().map_err(io)

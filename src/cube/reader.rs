@@ -353,6 +353,8 @@ impl CubeReader {
             ));
         }
         self.remaining = total as usize;
+        // Until a value is read, "where the file ends" is the last header line.
+        self.tok_line = self.line - 1;
         Ok(())
     }
 
@@ -384,7 +386,7 @@ impl CubeReader {
             if !self.next_token()? {
                 return Err(bad(
                     self,
-                    self.line,
+                    self.tok_line,
                     format!("the file ends after {got} of {n} orbital numbers"),
                 ));
             }
@@ -438,7 +440,9 @@ impl CubeReader {
                     }
                     i += 1;
                 }
-                self.tok_line = self.line;
+                if i < buf.len() {
+                    self.tok_line = self.line;
+                }
             }
             let start = i;
             while i < buf.len() && !is_space(buf[i]) {
@@ -487,7 +491,7 @@ impl CubeReader {
             if !self.next_token()? {
                 let total = self.info.value_count();
                 return Err(self.err(
-                    self.line,
+                    self.tok_line,
                     format_args!(
                         "the file ends after {} of the {total} values the header announces",
                         total - self.remaining + got

@@ -106,7 +106,8 @@ fn stream(
 ) -> Result<CubeInfo> {
     let mut r = open()?;
     let f = r.info().fields;
-    let mut chunk = vec![0.0; f * 16_384];
+    // Whole points, about 64 k values: bounded even for files of many fields.
+    let mut chunk = vec![0.0; f * (65_536 / f).max(1)];
     loop {
         let n = r.read_values(&mut chunk)?;
         if n == 0 {
