@@ -488,3 +488,42 @@ fn trilinear_interpolation_is_exact_for_linear_functions() {
     let far = grid.point(3, 4, 2);
     assert_eq!(v.value_at(0, [far[0] + 0.1, far[1], far[2]]), None);
 }
+
+/// Values split across the reader's internal buffer boundaries (256 kB) parse the
+/// same as written: a file of ~60 k values with irregular widths and line breaks,
+/// against the standard library's parser of the same text (common practice).
+#[test]
+fn values_across_buffer_boundaries() {
+    let mut text = String::from("t\nc\n    0 0 0 0\n 3 0.1 0 0\n 4 0 0.1 0\n 5000 0 0 0.1\n");
+    let mut want = Vec::new();
+    let mut seed = 7u64;
+    for n in 0..60_000 {
+        seed = seed
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
+        let v = ((seed >> 11) as f64 / (1u64 << 53) as f64 - 0.5) * 10f64.powi((n % 40) - 20);
+        let s = match n % 4 {
+            0 => format!("{v:e}"),
+            1 => format!("{v:.17e}"),
+            2 => format!("{v:.3E}").replace('E', "D"),
+            _ => format!("{v}"),
+        };
+        want.push(s.replace('D', "E").parse::<f64>().unwrap());
+        text += &s;
+        text += if n % 7 == 0 { "\r\n" } else { " " };
+    }
+    let v = read(text.as_bytes()).unwrap();
+    assert_eq!(v.values, want);
+    // A 100-character entry is refused as a whole, not cut to a shorter number:
+    // replace the first value by one.
+    let head: String = text.split_inclusive('\n').take(6).collect();
+    let rest = &text[head.len()..];
+    let first = rest.split_whitespace().next().unwrap();
+    let bad = format!("{head}{}{}", "1".repeat(100), &rest[first.len()..]);
+    let e = read(bad.as_bytes()).unwrap_err();
+    assert!(
+        e.message.contains("line 7: an entry is too long"),
+        "{}",
+        e.message
+    );
+}

@@ -487,18 +487,37 @@ impl CubeReader {
     /// 0 when all are read. A file that ends early or holds more values is an error.
     pub fn read_values(&mut self, out: &mut [f64]) -> Result<usize> {
         let want = out.len().min(self.remaining);
-        for (got, slot) in out[..want].iter_mut().enumerate() {
-            if !self.next_token()? {
-                let total = self.info.value_count();
-                return Err(self.err(
-                    self.tok_line,
-                    format_args!(
-                        "the file ends after {} of the {total} values the header announces",
-                        total - self.remaining + got
-                    ),
-                ));
+        let mut got = 0;
+        while got < want {
+            // Fast path: whole tokens inside the buffer are parsed in place.
+            let buf = match self.src.fill_buf() {
+                Ok(b) => b,
+                Err(e) => return Err(self.io_err(e)),
+            };
+            let scan = scan_values(buf, &mut out[got..want], &mut self.line);
+            self.src.consume(scan.consumed);
+            got += scan.filled;
+            if let Some(tl) = scan.last_line {
+                self.tok_line = tl;
             }
-            *slot = parse_finite(&self.tok).map_err(|m| self.err(self.tok_line, m))?;
+            if let Some((line, msg)) = scan.bad {
+                return Err(self.err(line, msg));
+            }
+            if got < want && scan.needs_slow_path {
+                // A token cut by the buffer's end, or the end of the file.
+                if !self.next_token()? {
+                    let total = self.info.value_count();
+                    return Err(self.err(
+                        self.tok_line,
+                        format_args!(
+                            "the file ends after {} of the {total} values the header announces",
+                            total - self.remaining + got
+                        ),
+                    ));
+                }
+                out[got] = parse_finite(&self.tok).map_err(|m| self.err(self.tok_line, m))?;
+                got += 1;
+            }
         }
         self.remaining -= want;
         if self.remaining == 0 && self.next_token()? {
@@ -515,6 +534,76 @@ impl CubeReader {
     }
 }
 
+/// What one scan of the buffer did.
+struct Scan {
+    consumed: usize,
+    filled: usize,
+    /// Line of the last value parsed.
+    last_line: Option<usize>,
+    /// Stopped at a token that may continue past the buffer (or at its end).
+    needs_slow_path: bool,
+    bad: Option<(usize, String)>,
+}
+
+/// Parses the whitespace-separated values wholly inside `buf` into `out`, counting
+/// lines; stops before a token that touches the buffer's end.
+#[inline]
+fn scan_values(buf: &[u8], out: &mut [f64], line: &mut usize) -> Scan {
+    let mut i = 0;
+    let mut filled = 0;
+    let mut last_line = None;
+    while filled < out.len() {
+        while i < buf.len() && is_space(buf[i]) {
+            *line += (buf[i] == b'\n') as usize;
+            i += 1;
+        }
+        let start = i;
+        while i < buf.len() && !is_space(buf[i]) {
+            i += 1;
+        }
+        if i - start > MAX_TOKEN {
+            return Scan {
+                consumed: i,
+                filled,
+                last_line,
+                needs_slow_path: false,
+                bad: Some((*line, "an entry is too long to be a number".into())),
+            };
+        }
+        if i == buf.len() {
+            return Scan {
+                consumed: start,
+                filled,
+                last_line,
+                needs_slow_path: true,
+                bad: None,
+            };
+        }
+        match parse_finite(&buf[start..i]) {
+            Ok(v) => out[filled] = v,
+            Err(m) => {
+                return Scan {
+                    consumed: i,
+                    filled,
+                    last_line,
+                    needs_slow_path: false,
+                    bad: Some((*line, m)),
+                };
+            }
+        }
+        last_line = Some(*line);
+        filled += 1;
+    }
+    Scan {
+        consumed: i,
+        filled,
+        last_line,
+        needs_slow_path: false,
+        bad: None,
+    }
+}
+
+#[inline]
 fn is_space(b: u8) -> bool {
     matches!(b, b' ' | b'\n' | b'\r' | b'\t' | 0x0b | 0x0c)
 }
@@ -533,9 +622,20 @@ const EXACT_POW10: [f64; 23] = [
 /// Short mantissas with small exponents take the exact fast path (an integer below
 /// 2^53 times or divided by an exact power of ten is correctly rounded, Clinger 1990);
 /// everything else goes through the standard library's correctly rounded parser.
+#[inline]
 pub fn parse_finite(s: &[u8]) -> std::result::Result<f64, String> {
-    if let Some(v) = fast_parse(s) {
-        return Ok(v);
+    match fast_parse(s) {
+        Some(v) => Ok(v),
+        None => parse_slow(s),
+    }
+}
+
+/// The general case: `D` exponents rewritten, then the standard parser.
+#[cold]
+#[inline(never)]
+fn parse_slow(s: &[u8]) -> std::result::Result<f64, String> {
+    if s.len() > MAX_TOKEN {
+        return Err("an entry is too long to be a number".into());
     }
     let mut owned = [0u8; MAX_TOKEN];
     let n = s.len().min(MAX_TOKEN);
