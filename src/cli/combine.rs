@@ -147,11 +147,10 @@ pub fn run(args: CombineArgs) -> Result<()> {
     }
     out.commit()?;
     let [nx, ny, nz] = header.grid.counts;
-    println!(
-        "wrote {}: {what} on {nx}×{ny}×{nz} points",
+    super::inspect::print_out(&format!(
+        "wrote {}: {what} on {nx}×{ny}×{nz} points\n",
         args.out.display()
-    );
-    Ok(())
+    ))
 }
 
 #[cfg(test)]

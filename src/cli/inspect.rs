@@ -37,11 +37,29 @@ pub fn run(args: InspectArgs) -> Result<()> {
         let report = JsonReport::new(&args.cube, &info, &fields, args.enclose);
         let text = serde_json::to_string_pretty(&report)
             .map_err(|e| crate::Error::internal(format!("cannot format JSON: {e}")))?;
-        println!("{text}");
+        print_out(&(text + "\n"))
     } else {
-        print_report(&args.cube, &info, &fields, args.enclose);
+        print_out(&report(&args.cube, &info, &fields, args.enclose))
     }
-    Ok(())
+}
+
+/// Appends one formatted line to a String (formatting into a String cannot fail).
+macro_rules! outln {
+    ($out:expr, $($arg:tt)*) => {{
+        use std::fmt::Write as _;
+        let _ = writeln!($out, $($arg)*);
+    }};
+}
+
+/// Writes the report to standard output; a closed pipe (`| head`) is not an error.
+pub fn print_out(text: &str) -> Result<()> {
+    use std::io::Write;
+    match std::io::stdout().lock().write_all(text.as_bytes()) {
+        Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => Err(crate::Error::internal(
+            format!("cannot write to standard output: {e}"),
+        )),
+        _ => Ok(()),
+    }
 }
 
 fn symbol(z: u32) -> String {
@@ -58,10 +76,12 @@ fn edges(info: &CubeInfo) -> [[f64; 3]; 3] {
     std::array::from_fn(|a| g.axes[a].map(|x| x * (g.counts[a] - 1) as f64))
 }
 
-fn print_report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: f64) {
+fn report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: f64) -> String {
+    let mut out = String::new();
     let h = &info.header;
     let g = &h.grid;
-    println!(
+    outln!(
+        out,
         "{}: {}{}",
         path.display(),
         if info.angstrom {
@@ -71,12 +91,13 @@ fn print_report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: 
         },
         if info.gzip { ", gzip-compressed" } else { "" }
     );
-    println!("title:   {}", h.title);
-    println!("comment: {}", h.comment);
-    println!("atoms: {}", h.atoms.len());
+    outln!(out, "title:   {}", h.title);
+    outln!(out, "comment: {}", h.comment);
+    outln!(out, "atoms: {}", h.atoms.len());
     for (n, a) in h.atoms.iter().enumerate() {
         let p = a.position;
-        println!(
+        outln!(
+            out,
             "  {:>4} {:<4} charge {:>8.4}  at {:>11.6} {:>11.6} {:>11.6} bohr",
             n + 1,
             symbol(a.atomic_number),
@@ -87,9 +108,10 @@ fn print_report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: 
         );
     }
     let [nx, ny, nz] = g.counts;
-    println!("grid: {nx} × {ny} × {nz} = {} points", g.point_count());
+    outln!(out, "grid: {nx} × {ny} × {nz} = {} points", g.point_count());
     let o = g.origin;
-    println!(
+    outln!(
+        out,
         "  origin   {:>11.6} {:>11.6} {:>11.6} bohr   ({:.6} {:.6} {:.6} Å)",
         o[0],
         o[1],
@@ -99,7 +121,8 @@ fn print_report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: 
         bohr_to_angstrom(o[2])
     );
     for (a, (ax, e)) in g.axes.iter().zip(edges(info)).enumerate() {
-        println!(
+        outln!(
+            out,
             "  step {}   {:>11.6} {:>11.6} {:>11.6} bohr   (|step| {:.6} bohr; edge {:.6} bohr = {:.6} Å)",
             a + 1,
             ax[0],
@@ -111,7 +134,8 @@ fn print_report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: 
         );
     }
     let dv = g.voxel_volume();
-    println!(
+    outln!(
+        out,
         "  voxel volume {dv:.6e} bohr³ ({:.6e} Å³)",
         dv * bohr_to_angstrom(1.0).powi(3)
     );
@@ -121,7 +145,8 @@ fn print_report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: 
             Some(nums) => format!(" (orbital {})", nums[n]),
             None => String::new(),
         };
-        println!(
+        outln!(
+            out,
             "field {}{which}: {}",
             n + 1,
             if f.stats.signed() {
@@ -130,13 +155,15 @@ fn print_report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: 
                 "non-negative"
             }
         );
-        println!(
+        outln!(
+            out,
             "  min {:>14.6e}   max {:>14.6e}   mean {:>14.6e}",
             s.min,
             s.max,
             s.mean()
         );
-        println!(
+        outln!(
+            out,
             "  ∫f dV {:>14.6e}   ∫f² dV {:>14.6e}",
             s.sum * dv,
             s.sum_sq * dv
@@ -147,13 +174,15 @@ fn print_report(path: &Path, info: &CubeInfo, fields: &[FieldSummary], enclose: 
         };
         let pm = if s.signed() { "±" } else { "" };
         match f.isovalue {
-            None => println!("  isovalue: none (the field is zero everywhere)"),
-            Some(t) => println!(
+            None => outln!(out, "  isovalue: none (the field is zero everywhere)"),
+            Some(t) => outln!(
+                out,
                 "  isovalue {pm}{t:.6e} encloses {:.4} % of {of}",
                 100.0 * enclose
             ),
         }
     }
+    out
 }
 
 #[derive(Serialize)]
