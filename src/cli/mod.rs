@@ -1,9 +1,11 @@
 //! The command line: clap definitions (one file per subcommand) and the mapping of
 //! errors to exit codes. No science lives here.
 
+mod combine;
 mod common;
 mod curve;
 mod curve_report;
+mod inspect;
 mod solve;
 mod volume;
 
@@ -34,6 +36,11 @@ enum Command {
     Curve(curve::CurveArgs),
     /// Sample one or more fields on a box and write a cube file
     Volume(volume::VolumeArgs),
+    /// Show what a cube file holds: header, grid, and per field min, max, mean,
+    /// integrals and the isovalue enclosing a chosen fraction
+    Inspect(inspect::InspectArgs),
+    /// Weighted sum of cube fields on one grid (e.g. a.cube:1 b.cube:-1)
+    Combine(combine::CombineArgs),
 }
 
 /// Runs the program on the process arguments and returns the exit status.
@@ -46,6 +53,8 @@ pub fn main() -> i32 {
         Command::Solve(a) => solve::run(a),
         Command::Curve(a) => curve::run(a),
         Command::Volume(a) => volume::run(a),
+        Command::Inspect(a) => inspect::run(a),
+        Command::Combine(a) => combine::run(a),
     };
     match result {
         Ok(()) => 0,

@@ -1,6 +1,6 @@
 //! `lobecast volume`: sample fields on a box around the molecule into a cube file.
 
-use std::io::{BufWriter, IsTerminal};
+use std::io::IsTerminal;
 use std::path::PathBuf;
 use std::time::Instant;
 
@@ -8,6 +8,7 @@ use clap::Args;
 
 use super::common::{length, load_model, print_notes};
 use crate::chem::LengthUnit;
+use crate::cube::sink::CubeSink;
 use crate::cube::{CubeAtom, CubeHeader, write_streaming};
 use crate::error::{Error, Result};
 use crate::field::{Field, FieldSampler};
@@ -41,7 +42,7 @@ pub struct VolumeArgs {
     /// Unit of --spacing and --padding
     #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
     pub units: LengthUnit,
-    /// Output cube file (lengths in bohr)
+    /// Output cube file (lengths in bohr; a name ending in .gz is gzip-compressed)
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
     /// Refuse to write a file larger than this many bytes
@@ -121,13 +122,14 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let mut out = OutputFile::create(&args.out, &model.inputs)?;
     let bar = progress_bar(&grid);
     {
-        let mut w = BufWriter::with_capacity(1 << 20, out.file());
+        let mut w = CubeSink::new(out.file(), &args.out);
         write_streaming(
             &header,
             |s, v| sampler.evaluate_slab(s, v),
             &mut w,
             &|done| bar.set_position(done as u64),
         )?;
+        w.finish()?;
     }
     bar.finish_and_clear();
     out.commit()?;
