@@ -147,7 +147,7 @@ pub fn run(args: CombineArgs) -> Result<()> {
     }
     out.commit()?;
     let [nx, ny, nz] = header.grid.counts;
-    super::inspect::print_out(&format!(
+    super::common::print_out(&format!(
         "wrote {}: {what} on {nx}×{ny}×{nz} points\n",
         args.out.display()
     ))

@@ -6,7 +6,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use super::common::{length, load_model, print_notes};
+use super::common::{length, load_model, print_notes, print_out, say};
 use super::curve_report as report;
 use crate::basis::{BasisSpec, Shell};
 use crate::chem::{LengthUnit, Molecule};
@@ -126,10 +126,10 @@ pub fn run(args: CurveArgs) -> Result<()> {
         }
         .into_document()
     };
-    print!("{}", doc.table);
-    println!("{}", doc.equilibrium_line);
+    print_out(&doc.table)?;
+    say!("{}", doc.equilibrium_line);
     if doc.minimal_basis {
-        print_notes(&[MINIMAL_BASIS_CAVEAT.to_string()]);
+        print_notes(&[MINIMAL_BASIS_CAVEAT.to_string()])?;
     }
     if let Some(path) = &args.csv {
         write_bytes(path, &model.inputs, doc.csv.as_bytes())?;

@@ -1,6 +1,7 @@
 //! `lobecast inspect`: what a cube file holds, and the statistics of each field,
 //! computed by streaming so that any file size fits in memory.
 
+use super::common::print_out;
 use std::path::{Path, PathBuf};
 
 use clap::Args;
@@ -49,17 +50,6 @@ macro_rules! outln {
         use std::fmt::Write as _;
         let _ = writeln!($out, $($arg)*);
     }};
-}
-
-/// Writes the report to standard output; a closed pipe (`| head`) is not an error.
-pub fn print_out(text: &str) -> Result<()> {
-    use std::io::Write;
-    match std::io::stdout().lock().write_all(text.as_bytes()) {
-        Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => Err(crate::Error::internal(
-            format!("cannot write to standard output: {e}"),
-        )),
-        _ => Ok(()),
-    }
 }
 
 fn symbol(z: u32) -> String {

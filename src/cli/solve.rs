@@ -4,7 +4,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use super::common::{load_model, print_notes};
+use super::common::{load_model, print_notes, print_out, say};
 use crate::chem::units::hartree_to_ev;
 use crate::error::Result;
 use crate::solve::{OrbitalSet, orbitals_for};
@@ -24,7 +24,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
         crate::output::check_not_input(path, &model.inputs)?;
     }
     let set = orbitals_for(&model)?;
-    println!(
+    say!(
         "lobecast solve: {} from {}, {}, {} electron(s); energies include the nuclear repulsion {:.8} hartree",
         set.molecule.formula_with_charge(),
         model.path.display(),
@@ -32,8 +32,8 @@ pub fn run(args: SolveArgs) -> Result<()> {
         set.molecule.electron_count(),
         set.molecule.nuclear_repulsion()
     );
-    print!("{}", table(&set));
-    print_notes(&set.notes);
+    print_out(&table(&set))?;
+    print_notes(&set.notes)?;
     if let Some(path) = &args.json {
         crate::output::write_bytes(
             path,

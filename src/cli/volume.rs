@@ -6,7 +6,7 @@ use std::time::Instant;
 
 use clap::Args;
 
-use super::common::{length, load_model, print_notes};
+use super::common::{length, load_model, print_notes, say};
 use crate::chem::LengthUnit;
 use crate::cube::sink::CubeSink;
 use crate::cube::{CubeAtom, CubeHeader, write_streaming};
@@ -134,7 +134,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     bar.finish_and_clear();
     out.commit()?;
     let [nx, ny, nz] = grid.counts;
-    println!(
+    say!(
         "wrote {}: {} field(s), {nx}×{ny}×{nz} points at {:.6} bohr spacing, {:.1} MB, in {:.2} s",
         args.out.display(),
         fields.len(),
@@ -143,9 +143,9 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         started.elapsed().as_secs_f64()
     );
     for d in &descriptions {
-        println!("  {d}");
+        say!("  {d}");
     }
-    print_notes(&set.notes);
+    print_notes(&set.notes)?;
     Ok(())
 }
 
