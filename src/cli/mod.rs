@@ -3,7 +3,9 @@
 
 mod common;
 mod curve;
+mod slice;
 mod solve;
+pub mod source;
 mod volume;
 
 use clap::{Parser, Subcommand};
@@ -33,6 +35,8 @@ enum Command {
     Curve(curve::CurveArgs),
     /// Sample one or more fields on a box and write a cube file
     Volume(volume::VolumeArgs),
+    /// Draw a field (or several side by side) on a plane as a PNG figure
+    Slice(slice::SliceArgs),
 }
 
 /// Runs the program on the process arguments and returns the exit status.
@@ -45,6 +49,7 @@ pub fn main() -> i32 {
         Command::Solve(a) => solve::run(a),
         Command::Curve(a) => curve::run(a),
         Command::Volume(a) => volume::run(a),
+        Command::Slice(a) => slice::run(a),
     };
     match result {
         Ok(()) => 0,

@@ -1,0 +1,1 @@
+//! Line charts (energy curves, profiles) drawn with plotters on our canvas.
