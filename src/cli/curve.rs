@@ -39,6 +39,9 @@ pub struct CurveArgs {
     /// Write the curve and its refined equilibrium as JSON
     #[arg(long, value_name = "FILE")]
     pub json: Option<PathBuf>,
+    /// Draw the energies as a PNG chart, and S, J and K beside it in FILE-integrals.png
+    #[arg(long, value_name = "FILE")]
+    pub png: Option<PathBuf>,
 }
 
 /// What the model must be for the closed forms: two identical nuclei, one electron,
@@ -82,7 +85,13 @@ pub fn run(args: CurveArgs) -> Result<()> {
         length(args.to, args.units),
         length(args.step, args.units),
     )?;
-    for path in [&args.csv, &args.json].into_iter().flatten() {
+    let pngs = args.png.as_ref().map(|p| (p.clone(), integrals_path(p)));
+    let png_paths = pngs.iter().flat_map(|(a, b)| [a, b]);
+    for path in [&args.csv, &args.json]
+        .into_iter()
+        .flatten()
+        .chain(png_paths)
+    {
         crate::output::check_not_input(path, &model.inputs)?;
     }
     let choice = if args.optimize_zeta {
@@ -126,7 +135,56 @@ pub fn run(args: CurveArgs) -> Result<()> {
         write_bytes(path, &model.inputs, (text + "\n").as_bytes())?;
         eprintln!("wrote {}", path.display());
     }
+    if let Some((energy_png, integrals_png)) = &pngs {
+        let data = chart_data(&model, &points, eq, limit, &zeta_text);
+        let energies = crate::plot::curve::energies(&data)?;
+        write_bytes(energy_png, &model.inputs, &energies.encode_png())?;
+        eprintln!("wrote {}", energy_png.display());
+        let integrals = crate::plot::curve::integrals(&data)?;
+        write_bytes(integrals_png, &model.inputs, &integrals.encode_png())?;
+        eprintln!("wrote {}", integrals_png.display());
+    }
     Ok(())
+}
+
+/// `curve.png` → `curve-integrals.png`: where the S, J, K chart goes.
+pub fn integrals_path(png: &std::path::Path) -> PathBuf {
+    let stem = png
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let ext = png
+        .extension()
+        .map(|e| format!(".{}", e.to_string_lossy()))
+        .unwrap_or_else(|| ".png".into());
+    png.with_file_name(format!("{stem}-integrals{ext}"))
+}
+
+fn chart_data(
+    model: &crate::model::Model,
+    points: &[CurvePoint],
+    eq: Option<Equilibrium>,
+    limit: f64,
+    zeta_text: &str,
+) -> crate::plot::curve::CurveData {
+    let col = |f: fn(&CurvePoint) -> f64| points.iter().map(f).collect::<Vec<f64>>();
+    let formula = crate::render::text::formula_markup(&model.molecule.formula_with_charge());
+    crate::plot::curve::CurveData {
+        title: format!("{formula}, one 1s Slater function per nucleus, ζ = {zeta_text}"),
+        r: col(|p| p.r),
+        overlap: col(|p| p.model.s),
+        coulomb: col(|p| p.model.coulomb),
+        exchange: col(|p| p.model.exchange),
+        e_bonding: col(|p| p.model.e_bonding),
+        e_antibonding: col(|p| p.model.e_antibonding),
+        equilibrium: eq.map(|e| (e.r, e.energy)),
+        limit,
+        footnotes: vec![
+            "Total energies at fixed nuclei (nuclear repulsion included); 1 hartree = 27.211386 eV, 1 bohr = 0.529177 Å.".into(),
+            "Minimal basis: energies are variational upper bounds and the bond is too weak; use them for trends.".into(),
+        ],
+        width: 1000,
+    }
 }
 
 fn table(points: &[CurvePoint], with_zeta: bool) -> String {

@@ -3,6 +3,7 @@
 
 mod common;
 mod curve;
+mod profile;
 mod slice;
 mod solve;
 pub mod source;
@@ -37,6 +38,8 @@ enum Command {
     Volume(volume::VolumeArgs),
     /// Draw a field (or several side by side) on a plane as a PNG figure
     Slice(slice::SliceArgs),
+    /// Follow fields along a line between atoms or points: CSV and a PNG chart
+    Profile(profile::ProfileArgs),
 }
 
 /// Runs the program on the process arguments and returns the exit status.
@@ -50,6 +53,7 @@ pub fn main() -> i32 {
         Command::Curve(a) => curve::run(a),
         Command::Volume(a) => volume::run(a),
         Command::Slice(a) => slice::run(a),
+        Command::Profile(a) => profile::run(a),
     };
     match result {
         Ok(()) => 0,

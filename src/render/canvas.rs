@@ -218,6 +218,61 @@ impl Canvas {
         }
     }
 
+    /// Draws text turned 90° clockwise (reading downwards).
+    pub fn text_down(
+        &mut self,
+        s: &str,
+        size: f32,
+        x: f32,
+        y: f32,
+        align: (HAlign, VAlign),
+        c: Colour,
+    ) {
+        let e = text::measure(s, size);
+        let (dx, dy) = offsets(&e, align);
+        let mut cover = Vec::new();
+        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
+        for (px, py, v) in cover {
+            let (u, w) = (px as f32 + dx, py as f32 + dy);
+            self.blend((x - w).round() as i32, (y + u).round() as i32, c, v);
+        }
+    }
+
+    /// The canvas shrunk by an integer `factor`, each pixel the mean of a block:
+    /// drawing large and shrinking smooths what was placed on whole pixels.
+    pub fn downsample(&self, factor: u32) -> Canvas {
+        let f = factor.max(1);
+        let (w, h) = (self.width() / f, self.height() / f);
+        let mut out = Pixmap::new(w.max(1), h.max(1)).expect("non-zero canvas");
+        let src = self.pixmap.pixels();
+        let sw = self.width() as usize;
+        let n = f * f;
+        for y in 0..h as usize {
+            for x in 0..w as usize {
+                let mut acc = [0u32; 4];
+                for dy in 0..f as usize {
+                    for dx in 0..f as usize {
+                        let p = src[(y * f as usize + dy) * sw + x * f as usize + dx];
+                        acc[0] += p.red() as u32;
+                        acc[1] += p.green() as u32;
+                        acc[2] += p.blue() as u32;
+                        acc[3] += p.alpha() as u32;
+                    }
+                }
+                let m = |v: u32| ((v + n / 2) / n) as u8;
+                let a = m(acc[3]);
+                out.pixels_mut()[y * w as usize + x] = PremultipliedColorU8::from_rgba(
+                    m(acc[0]).min(a),
+                    m(acc[1]).min(a),
+                    m(acc[2]).min(a),
+                    a,
+                )
+                .expect("valid premultiplied colour");
+            }
+        }
+        Canvas { pixmap: out }
+    }
+
     pub fn encode_png(&self) -> Vec<u8> {
         self.pixmap
             .encode_png()

@@ -484,7 +484,7 @@ fn draw_contours(
                 .map(|(x, y)| (mx + *x as f32 + 0.5, my + *y as f32 + 0.5))
                 .collect();
             // A pale halo under each line keeps it visible on dark and light colours.
-            let halo = Colour::WHITE.with_alpha(140);
+            let halo = Colour::WHITE.with_alpha(110);
             c.stroke(
                 &pts,
                 lw * 2.6,
