@@ -81,7 +81,9 @@ pub fn energies(d: &CurveData) -> Result<Canvas> {
     let yd = axis_decimals(y0, y1, 8);
     let ed = axis_decimals(y0 * HARTREE_IN_EV, y1 * HARTREE_IN_EV, 8);
     let xd = axis_decimals(x0, x1, 10);
-    let bottom = (d.footnotes.len() as f32 * 1.35 * z.foot + 14.0 * z.k) as u32;
+    let bottom =
+        ((super::wrap_notes(&d.footnotes, &z, canvas.width()).len() + 1) as f32 * 1.35 * z.foot
+            + 14.0 * z.k) as u32;
     let legend = (30.0 * z.k) as i32;
     {
         let root = CanvasBackend {
@@ -103,7 +105,7 @@ pub fn energies(d: &CurveData) -> Result<Canvas> {
             .configure_mesh()
             .set_all_tick_mark_size((6.0 * z.k) as u32)
             .axis_style(ShapeStyle::from(&BLACK).stroke_width(z.thin))
-            .light_line_style(RGBColor(238, 238, 238))
+            .light_line_style(TRANSPARENT)
             .bold_line_style(RGBColor(218, 218, 218))
             .label_style(("sans-serif", z.label as f64))
             .axis_desc_style(("sans-serif", z.desc as f64))
@@ -241,7 +243,7 @@ pub fn integrals(d: &CurveData) -> Result<Canvas> {
             .configure_mesh()
             .set_all_tick_mark_size((6.0 * z.k) as u32)
             .axis_style(ShapeStyle::from(&BLACK).stroke_width(z.thin))
-            .light_line_style(RGBColor(238, 238, 238))
+            .light_line_style(TRANSPARENT)
             .bold_line_style(RGBColor(218, 218, 218))
             .label_style(("sans-serif", z.label as f64))
             .axis_desc_style(("sans-serif", z.desc as f64))

@@ -49,12 +49,14 @@ impl Sizes {
 
     pub fn new(width: u32) -> Self {
         let k = width as f32 / 1000.0;
+        // Text keeps a readable minimum size in small charts.
+        let kt = k.max(crate::render::slice::MIN_TEXT_SCALE * SUPERSAMPLE as f32);
         Sizes {
             k,
-            title: 23.0 * k,
-            label: 17.0 * k,
-            desc: 19.0 * k,
-            foot: 14.0 * k,
+            title: 23.0 * kt,
+            label: 17.0 * kt,
+            desc: 19.0 * kt,
+            foot: 14.0 * kt,
             line: (2.5 * k).round().max(1.0) as u32,
             thin: k.round().max(1.0) as u32,
         }
@@ -74,4 +76,12 @@ pub(crate) fn padded(lo: f64, hi: f64, frac: f64) -> (f64, f64) {
         return (lo - 1.0, hi + 1.0);
     }
     (lo - frac * span, hi + frac * span)
+}
+
+/// Footnotes broken into lines that fit a chart `width` pixels wide.
+pub(crate) fn wrap_notes(notes: &[String], z: &Sizes, width: u32) -> Vec<String> {
+    notes
+        .iter()
+        .flat_map(|f| crate::render::text::wrap(f, z.foot, width as f32 - 32.0 * z.k))
+        .collect()
 }

@@ -1,8 +1,7 @@
 //! The profile chart: field values along a line, with the nuclei on it marked.
 
-use plotters::element::{PathElement, Text};
+use plotters::element::PathElement;
 use plotters::prelude::*;
-use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use super::backend::CanvasBackend;
 use super::{PALETTE, SUPERSAMPLE, Sizes, axis_decimals, padded, plot_error};
@@ -35,15 +34,21 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
     let z = Sizes::new(p.width * SUPERSAMPLE);
     let height = (p.width as f32 * 0.62) as u32 * SUPERSAMPLE;
     let mut canvas = Canvas::new(p.width * SUPERSAMPLE, height, p.background);
-    let top = (z.margin_top() + 0.5 * z.label) as u32;
-    let bottom = (p.footnotes.len() as f32 * 1.35 * z.foot + 14.0 * z.k) as u32;
+    let top = (z.margin_top() + 1.6 * z.label) as u32;
+    let bottom = (super::wrap_notes(&p.footnotes, &z, canvas.width()).len() as f32 * 1.35 * z.foot
+        + 14.0 * z.k) as u32;
     let (x0, x1) = (p.s[0], p.s[p.s.len() - 1]);
     let all = p.series.iter().flat_map(|s| s.values.iter().copied());
     let (lo, hi) = all.fold((0.0f64, 0.0f64), |(a, b), v| (a.min(v), b.max(v)));
-    let (y0, y1) = padded(lo, hi, 0.06);
+    let (y0, mut y1) = padded(lo, hi, 0.06);
+    if p.series.len() > 1 {
+        // Headroom for the legend, so it covers no curve.
+        y1 += 0.12 * (hi - lo) * p.series.len() as f64;
+    }
     let yd = axis_decimals(y0, y1, 8);
     let xd = axis_decimals(x0, x1, 10);
     let legend = (30.0 * z.k) as i32;
+    let mut nucleus_labels: Vec<(String, (i32, i32))> = Vec::new();
     {
         let root = CanvasBackend {
             canvas: &mut canvas,
@@ -62,7 +67,7 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
             .configure_mesh()
             .set_all_tick_mark_size((6.0 * z.k) as u32)
             .axis_style(ShapeStyle::from(&BLACK).stroke_width(z.thin))
-            .light_line_style(RGBColor(235, 235, 235))
+            .light_line_style(TRANSPARENT)
             .bold_line_style(RGBColor(215, 215, 215))
             .label_style(("sans-serif", z.label as f64))
             .axis_desc_style(("sans-serif", z.desc as f64))
@@ -82,7 +87,6 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
                 ))
                 .map_err(plot_error)?;
         }
-        let tick = (y1 - y0) * 0.012;
         for (label, x) in &p.nuclei {
             chart
                 .draw_series(DashedLineSeries::new(
@@ -92,16 +96,8 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
                     ShapeStyle::from(&RGBColor(100, 100, 100)).stroke_width(z.thin),
                 ))
                 .map_err(plot_error)?;
-            chart
-                .draw_series(std::iter::once(Text::new(
-                    label.clone(),
-                    (*x, y1 - tick),
-                    ("sans-serif", z.label as f64)
-                        .into_font()
-                        .color(&RGBColor(60, 60, 60))
-                        .pos(Pos::new(HPos::Center, VPos::Top)),
-                )))
-                .map_err(plot_error)?;
+            // Labels go above the frame, clear of the curves and the legend.
+            nucleus_labels.push((label.clone(), chart.backend_coord(&(*x, y1))));
         }
         for (i, s) in p.series.iter().enumerate() {
             let colour = PALETTE[i % PALETTE.len()];
@@ -129,6 +125,16 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
         }
         root.present().map_err(plot_error)?;
     }
+    for (label, (x, y)) in &nucleus_labels {
+        canvas.text(
+            label,
+            z.label,
+            *x as f32,
+            *y as f32 - 4.0 * z.k,
+            (HAlign::Centre, VAlign::Bottom),
+            Colour::rgb(60, 60, 60),
+        );
+    }
     finish(&mut canvas, &p.title, &p.footnotes, &z);
     Ok(canvas.downsample(SUPERSAMPLE))
 }
@@ -136,6 +142,7 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
 /// Title at the top and footnotes at the bottom, in our own text.
 pub(crate) fn finish(c: &mut Canvas, title: &str, footnotes: &[String], z: &Sizes) {
     let w = c.width() as f32;
+    let footnotes = super::wrap_notes(footnotes, z, c.width());
     c.text(
         title,
         z.title,
@@ -145,7 +152,7 @@ pub(crate) fn finish(c: &mut Canvas, title: &str, footnotes: &[String], z: &Size
         Colour::INK,
     );
     let mut y = c.height() as f32 - 10.0 * z.k - footnotes.len() as f32 * 1.35 * z.foot;
-    for f in footnotes {
+    for f in &footnotes {
         c.text(
             f,
             z.foot,

@@ -22,7 +22,15 @@ pub struct Axes<'a> {
 pub fn draw(c: &mut Canvas, a: &Axes) {
     let lw = (1.0 * a.k).max(1.0);
     let tick = 6.0 * a.k;
-    c.stroke_rect(a.x, a.y, a.width, a.height, lw, Colour::INK);
+    // The frame lies just outside the map, so no sampled pixel is painted over.
+    c.stroke_rect(
+        a.x - lw / 2.0,
+        a.y - lw / 2.0,
+        a.width + lw,
+        a.height + lw,
+        lw,
+        Colour::INK,
+    );
     let w = &a.window;
     let (u0, u1) = (bohr_to_angstrom(w.u0), bohr_to_angstrom(w.u1));
     let (v0, v1) = (bohr_to_angstrom(w.v0), bohr_to_angstrom(w.v1));

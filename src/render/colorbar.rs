@@ -56,7 +56,16 @@ pub fn draw(c: &mut Canvas, bar: &Bar) {
             );
         }
     }
-    c.stroke_rect(xf, yf, wf, hf, (1.0 * bar.k).max(1.0), Colour::INK);
+    // The frame lies just outside the bar, so the end rows keep their exact colours.
+    let lw = (1.0 * bar.k).max(1.0);
+    c.stroke_rect(
+        xf - lw / 2.0,
+        yf - lw / 2.0,
+        wf + lw,
+        hf + lw,
+        lw,
+        Colour::INK,
+    );
 
     let (lo, hi) = bar.mapping.range();
     let exp = if bar.mapping.is_log() {

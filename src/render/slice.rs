@@ -110,6 +110,9 @@ pub struct Rendered {
     pub values: Vec<Vec<f64>>,
 }
 
+/// Text is never scaled below this fraction of its size at 1000 px.
+pub const MIN_TEXT_SCALE: f32 = 0.75;
+
 /// Sizes in pixels at a figure width of 1000; multiplied by width/1000.
 struct Sizes {
     k: f32,
@@ -127,17 +130,19 @@ struct Sizes {
 impl Sizes {
     fn new(width: u32) -> Self {
         let k = width as f32 / 1000.0;
-        let font = 17.0 * k;
+        // Text keeps a readable minimum size in small figures.
+        let kt = k.max(MIN_TEXT_SCALE);
+        let font = 17.0 * kt;
         // Room left of a map for tick labels and the axis name; the bar's room holds
         // the gap, the bar, ticks, labels like "−0.3183" and the turned unit line.
         let label = text::measure("−00.00", font).width;
         let bar_labels = text::measure("−0.0000", font).width;
         Sizes {
             k,
-            title: 24.0 * k,
-            heading: 19.0 * k,
+            title: 24.0 * kt,
+            heading: 19.0 * kt,
             font,
-            foot: 14.0 * k,
+            foot: 14.0 * kt,
             margin: 18.0 * k,
             left: label + 6.0 * k + 3.0 * k + 6.0 * k + 1.5 * 1.1 * font,
             bottom: 6.0 * k + 2.0 * k + 1.35 * font + 4.0 * k + 1.4 * 1.1 * font + 8.0 * k,
@@ -233,7 +238,12 @@ pub fn render(
     let head = if n > 1 { 1.6 * s.heading } else { 0.0 };
     let top = s.margin + title_lines.len() as f32 * 1.3 * s.title + 10.0 * s.k;
     let row_h = head + ny as f32 + s.bottom;
-    let foot_h = fig.footnotes.len() as f32 * 1.35 * s.foot;
+    let foot_lines: Vec<String> = fig
+        .footnotes
+        .iter()
+        .flat_map(|f| text::wrap(f, s.foot, style.width as f32 - 2.0 * s.margin))
+        .collect();
+    let foot_h = foot_lines.len() as f32 * 1.35 * s.foot;
     let height = (top + rows as f32 * row_h + foot_h + s.margin).ceil() as u32;
 
     let grid = PixelGrid {
@@ -362,7 +372,7 @@ pub fn render(
         );
     }
     let mut fy = top + rows as f32 * row_h;
-    for f in &fig.footnotes {
+    for f in &foot_lines {
         c.text(
             f,
             s.foot,

@@ -109,6 +109,28 @@ pub fn rasterize(text: &str, size: f32, mut cover: impl FnMut(i32, i32, f32)) {
     }
 }
 
+/// Breaks markup into lines no wider than `width` at `size`, at spaces.
+pub fn wrap(text: &str, size: f32, width: f32) -> Vec<String> {
+    let mut lines = Vec::new();
+    let mut line = String::new();
+    for word in text.split(' ') {
+        let candidate = if line.is_empty() {
+            word.to_string()
+        } else {
+            format!("{line} {word}")
+        };
+        if line.is_empty() || measure(&candidate, size).width <= width {
+            line = candidate;
+        } else {
+            lines.push(std::mem::replace(&mut line, word.to_string()));
+        }
+    }
+    if !line.is_empty() {
+        lines.push(line);
+    }
+    lines
+}
+
 /// Turns a chemical formula such as "H2+" into markup with subscript counts and a
 /// superscript charge: "H_{2}^{+}".
 pub fn formula_markup(formula: &str) -> String {
