@@ -155,16 +155,21 @@ pub fn run(args: ProfileArgs) -> Result<()> {
             y_label,
             x_label: format!("distance from {} / Å", args.from),
             nuclei,
-            footnotes: vec![
-                format!(
+            footnotes: {
+                let mut f = vec![format!(
                     "{} samples, {:.3} Å apart; {}.",
                     s.len(),
                     bohr_to_angstrom(s[1] - s[0]),
                     source.provenance()
-                ),
-                "Minimal basis: shapes and signs are qualitative; energies are upper bounds."
-                    .into(),
-            ],
+                )];
+                if super::slice::minimal_basis(&source) {
+                    f.push(
+                        "Minimal basis: shapes and signs are qualitative; energies are upper bounds."
+                            .into(),
+                    );
+                }
+                f
+            },
             width: args.size,
             background: Colour::WHITE,
         };

@@ -163,9 +163,12 @@ pub fn run(args: SliceArgs) -> Result<()> {
         }
     });
     let mut footnotes = vec![format!("{}; {}", plane.description, source.provenance())];
-    footnotes.push(
-        "Minimal basis: shapes and signs are qualitative; energies are upper bounds.".to_string(),
-    );
+    if minimal_basis(&source) {
+        footnotes.push(
+            "Minimal basis: shapes and signs are qualitative; energies are upper bounds."
+                .to_string(),
+        );
+    }
     if fields
         .iter()
         .any(|f| matches!(f, Field::OrbitalDeformation(_)))
@@ -243,6 +246,14 @@ pub fn run(args: SliceArgs) -> Result<()> {
     }
     print_notes(&source.notes());
     Ok(())
+}
+
+/// Whether the source's notes carry the minimal-basis caution, which figures repeat.
+pub fn minimal_basis(source: &Source) -> bool {
+    source
+        .notes()
+        .iter()
+        .any(|n| n.starts_with("minimal basis"))
 }
 
 impl SliceArgs {
