@@ -143,9 +143,17 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
 pub(crate) fn finish(c: &mut Canvas, title: &str, footnotes: &[String], z: &Sizes) {
     let w = c.width() as f32;
     let footnotes = super::wrap_notes(footnotes, z, c.width());
+    // A long title is set smaller rather than cut at the edges.
+    let room = w - 32.0 * z.k;
+    let tw = crate::render::text::measure(title, z.title).width;
+    let title_size = if tw > room {
+        z.title * room / tw
+    } else {
+        z.title
+    };
     c.text(
         title,
-        z.title,
+        title_size,
         w / 2.0,
         14.0 * z.k,
         (HAlign::Centre, VAlign::Top),
