@@ -15,6 +15,8 @@ pub mod grid;
 pub mod integrals;
 pub mod model;
 pub mod output;
+pub mod plot;
+pub mod render;
 pub mod solve;
 
 pub use error::{Error, Result};

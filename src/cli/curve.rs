@@ -7,6 +7,7 @@ use std::path::PathBuf;
 use clap::Args;
 
 use super::common::{length, load_model, print_notes, print_out, say};
+use super::curve_charts as charts;
 use super::curve_report as report;
 use crate::basis::{BasisSpec, Shell};
 use crate::chem::{LengthUnit, Molecule};
@@ -44,6 +45,10 @@ pub struct CurveArgs {
     /// Write the curve and its refined equilibrium as JSON
     #[arg(long, value_name = "FILE")]
     pub json: Option<PathBuf>,
+    /// Draw the energies as a PNG chart (and, for the slater-1s closed forms, S, J and K
+    /// beside it in FILE-integrals.png)
+    #[arg(long, value_name = "FILE")]
+    pub png: Option<PathBuf>,
 }
 
 /// Checks what every curve needs: two atoms, one electron, a basis to rebuild.
@@ -83,7 +88,12 @@ pub fn run(args: CurveArgs) -> Result<()> {
         length(args.to, args.units),
         length(args.step, args.units),
     )?;
-    for path in [&args.csv, &args.json].into_iter().flatten() {
+    let pngs = args.png.as_ref().map(|p| (p.clone(), integrals_path(p)));
+    for path in [&args.csv, &args.json]
+        .into_iter()
+        .flatten()
+        .chain(pngs.iter().flat_map(|(a, b)| [a, b]))
+    {
         check_not_input(path, &model.inputs)?;
     }
     let (a, b) = (&molecule.atoms[0], &molecule.atoms[1]);
@@ -93,6 +103,7 @@ pub fn run(args: CurveArgs) -> Result<()> {
             "--optimize-zeta works with the slater-1s set on two identical atoms",
         ));
     }
+    let chart;
     let doc = if closed_form {
         let Shell::Slater(s) = &model.basis.shells[0] else {
             return Err(Error::internal("slater-1s without a Slater shell"));
@@ -105,6 +116,7 @@ pub fn run(args: CurveArgs) -> Result<()> {
         let z = a.charge();
         let points = curve::scan(z, choice, &rs);
         let eq = curve::equilibrium(z, choice, &points);
+        chart = Some(charts::two_centre(&model, &points, eq, choice));
         report::TwoCentre {
             model: &model,
             z,
@@ -119,6 +131,7 @@ pub fn run(args: CurveArgs) -> Result<()> {
         }
         let points = curve::scan_states(molecule, spec, &rs, args.states)?;
         let eq = curve::states_equilibrium(molecule, spec, &points)?;
+        chart = charts::states(&model, &points, eq);
         report::States {
             model: &model,
             points,
@@ -139,5 +152,36 @@ pub fn run(args: CurveArgs) -> Result<()> {
         write_bytes(path, &model.inputs, doc.json.as_bytes())?;
         eprintln!("wrote {}", path.display());
     }
+    if let Some((energy_png, integrals_png)) = &pngs {
+        let data =
+            chart.ok_or_else(|| Error::input("--png needs at least two states (--states 2)"))?;
+        write_bytes(
+            energy_png,
+            &model.inputs,
+            &crate::plot::curve::energies(&data)?.encode_png(),
+        )?;
+        eprintln!("wrote {}", energy_png.display());
+        if closed_form {
+            write_bytes(
+                integrals_png,
+                &model.inputs,
+                &crate::plot::curve::integrals(&data)?.encode_png(),
+            )?;
+            eprintln!("wrote {}", integrals_png.display());
+        }
+    }
     Ok(())
+}
+
+/// `curve.png` → `curve-integrals.png`: where the S, J, K chart goes.
+pub fn integrals_path(png: &std::path::Path) -> PathBuf {
+    let stem = png
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let ext = png
+        .extension()
+        .map(|e| format!(".{}", e.to_string_lossy()))
+        .unwrap_or_else(|| ".png".into());
+    png.with_file_name(format!("{stem}-integrals{ext}"))
 }

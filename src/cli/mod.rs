@@ -4,9 +4,13 @@
 mod combine;
 mod common;
 mod curve;
+mod curve_charts;
 mod curve_report;
 mod inspect;
+mod profile;
+mod slice;
 mod solve;
+pub mod source;
 mod volume;
 
 use clap::{Parser, Subcommand};
@@ -41,6 +45,10 @@ enum Command {
     Inspect(inspect::InspectArgs),
     /// Weighted sum of cube fields on one grid (e.g. a.cube:1 b.cube:-1)
     Combine(combine::CombineArgs),
+    /// Draw a field (or several side by side) on a plane as a PNG figure
+    Slice(slice::SliceArgs),
+    /// Follow fields along a line between atoms or points: CSV and a PNG chart
+    Profile(profile::ProfileArgs),
 }
 
 /// Runs the program on the process arguments and returns the exit status.
@@ -55,6 +63,8 @@ pub fn main() -> i32 {
         Command::Volume(a) => volume::run(a),
         Command::Inspect(a) => inspect::run(a),
         Command::Combine(a) => combine::run(a),
+        Command::Slice(a) => slice::run(a),
+        Command::Profile(a) => profile::run(a),
     };
     match result {
         Ok(()) => 0,

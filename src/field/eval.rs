@@ -46,6 +46,7 @@ impl FieldSampler {
                     coeffs(),
                     set.gross_populations(index.expect("orbital field"))?,
                 ),
+                Field::Stored(_) => return Err(super::stored_needs_cube()),
                 Field::Density => Resolved::Density(
                     set.orbitals
                         .iter()

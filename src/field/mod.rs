@@ -20,9 +20,11 @@ pub enum Field {
     OrbitalDeformation(OrbitalSelector),
     /// Σ_i n_i |ψ_i|² over occupied orbitals, bohr⁻³.
     Density,
+    /// The K-th field stored in a cube file (from 1), interpolated between its points.
+    Stored(usize),
 }
 
-const ACCEPTED: &str = "orbital:N, orbital-density:N, orbital-deformation:N (N a number, homo, lumo, homo-1, lumo+1, …) or density";
+const ACCEPTED: &str = "orbital:N, orbital-density:N, orbital-deformation:N (N a number, homo, lumo, homo-1, lumo+1, …), density, or stored:K for the K-th field of a cube file";
 
 impl Field {
     pub fn parse(text: &str) -> Result<Self> {
@@ -34,6 +36,14 @@ impl Field {
         match t.split_once(':') {
             None if t.eq_ignore_ascii_case("density") => Ok(Field::Density),
             None => Err(bad()),
+            Some((kind, k)) if kind.eq_ignore_ascii_case("stored") => {
+                match k.trim().parse::<usize>() {
+                    Ok(k) if k >= 1 => Ok(Field::Stored(k)),
+                    _ => Err(Error::input(format!(
+                        "stored:K needs a field number from 1, got {k:?}"
+                    ))),
+                }
+            }
             Some((kind, sel)) => {
                 let sel = OrbitalSelector::parse(sel)?;
                 match kind.to_ascii_lowercase().as_str() {
@@ -49,7 +59,7 @@ impl Field {
     pub fn selector(&self) -> Option<OrbitalSelector> {
         match self {
             Field::Orbital(s) | Field::OrbitalDensity(s) | Field::OrbitalDeformation(s) => Some(*s),
-            Field::Density => None,
+            Field::Density | Field::Stored(_) => None,
         }
     }
 
@@ -62,6 +72,7 @@ impl Field {
     pub fn unit(&self) -> &'static str {
         match self {
             Field::Orbital(_) => "bohr^-3/2",
+            Field::Stored(_) => "the file's units",
             _ => "e/bohr^3",
         }
     }
@@ -73,6 +84,7 @@ impl Field {
             Field::OrbitalDensity(_) => "orbital density",
             Field::OrbitalDeformation(_) => "orbital deformation density",
             Field::Density => return Ok(format!("electron density ({})", self.unit())),
+            Field::Stored(_) => return Err(stored_needs_cube()),
         };
         let i = self
             .selector()
@@ -90,11 +102,17 @@ impl Field {
 
     /// The 1-based orbital number a field refers to, 0 for the total density.
     pub fn orbital_number(&self, set: &OrbitalSet) -> Result<usize> {
-        match self.selector() {
-            Some(s) => Ok(s.resolve(&set.orbitals)? + 1),
-            None => Ok(0),
+        match (self, self.selector()) {
+            (Field::Stored(_), _) => Err(stored_needs_cube()),
+            (_, Some(s)) => Ok(s.resolve(&set.orbitals)? + 1),
+            (_, None) => Ok(0),
         }
     }
+}
+
+pub(crate) fn stored_needs_cube() -> Error {
+    Error::input("stored:K selects a field of a cube file; this source holds orbitals")
+        .with_hint("use orbital:N, orbital-density:N, orbital-deformation:N or density")
 }
 
 impl std::fmt::Display for Field {
@@ -104,6 +122,7 @@ impl std::fmt::Display for Field {
             Field::OrbitalDensity(s) => write!(f, "orbital-density:{s}"),
             Field::OrbitalDeformation(s) => write!(f, "orbital-deformation:{s}"),
             Field::Density => write!(f, "density"),
+            Field::Stored(k) => write!(f, "stored:{k}"),
         }
     }
 }

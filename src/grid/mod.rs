@@ -1,6 +1,8 @@
 //! Where to evaluate: boxes of points (and, later, planes and lines), and the
 //! parallel sampler that walks a box slab by slab.
 
+pub mod line;
+pub mod plane;
 mod sampler;
 
 pub use sampler::{Slab, sample_all, stream_slabs};

@@ -1,0 +1,268 @@
+//! `lobecast profile`: field values along a line, as CSV and as a line chart.
+
+use std::path::PathBuf;
+use std::time::Instant;
+
+use clap::Args;
+
+use super::common::{print_notes, say};
+use super::source::Source;
+use crate::chem::LengthUnit;
+use crate::chem::units::bohr_to_angstrom;
+use crate::error::{Error, Result};
+use crate::field::Field;
+use crate::grid::line::{Endpoint, Line};
+use crate::output::{check_not_input, write_bytes};
+use crate::plot::profile::{Profile, Series, draw};
+use crate::render::Colour;
+use crate::render::text::formula_markup;
+
+/// Nuclei closer than this to the line (bohr) are marked on the chart.
+pub const ON_LINE_BOHR: f64 = 0.05;
+
+#[derive(Debug, Args)]
+pub struct ProfileArgs {
+    /// Model file (TOML)
+    pub source: PathBuf,
+    /// Field to follow; repeat for several (one column and one line each)
+    #[arg(long = "field", required = true, value_name = "FIELD")]
+    pub fields: Vec<String>,
+    /// Start: atom:N or x,y,z (in --units)
+    #[arg(long)]
+    pub from: String,
+    /// End: atom:N or x,y,z (in --units)
+    #[arg(long)]
+    pub to: String,
+    /// Length added beyond both ends, e.g. 2, 2ang or 3.5bohr (a bare number is in --units)
+    #[arg(long, default_value = "0")]
+    pub extend: String,
+    /// Number of evenly spaced samples
+    #[arg(long, default_value_t = 401)]
+    pub points: usize,
+    /// Unit of coordinates and of a bare --extend
+    #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
+    pub units: LengthUnit,
+    /// Write the samples as CSV
+    #[arg(long, value_name = "FILE")]
+    pub csv: Option<PathBuf>,
+    /// Draw the profile as a PNG line chart
+    #[arg(long, value_name = "FILE")]
+    pub png: Option<PathBuf>,
+    /// Title instead of the automatic one
+    #[arg(long)]
+    pub title: Option<String>,
+    /// Width of the chart in pixels
+    #[arg(long, default_value_t = 1000)]
+    pub size: u32,
+}
+
+pub fn run(args: ProfileArgs) -> Result<()> {
+    let started = Instant::now();
+    if args.csv.is_none() && args.png.is_none() {
+        return Err(Error::input(
+            "nothing to write: give --csv FILE and/or --png FILE",
+        ));
+    }
+    if !(2..=1_000_000).contains(&args.points) {
+        return Err(Error::input(format!(
+            "--points must be between 2 and 1000000, got {}",
+            args.points
+        )));
+    }
+    if !(200..=10_000).contains(&args.size) {
+        return Err(Error::input(format!(
+            "--size must be between 200 and 10000 pixels, got {}",
+            args.size
+        )));
+    }
+    let fields = args
+        .fields
+        .iter()
+        .map(|f| Field::parse(f))
+        .collect::<Result<Vec<_>>>()?;
+    let from = Endpoint::parse(&args.from, args.units)?;
+    let to = Endpoint::parse(&args.to, args.units)?;
+    let extend = parse_length(&args.extend, args.units)?;
+    let source = Source::load(&args.source)?;
+    for p in [&args.csv, &args.png].into_iter().flatten() {
+        check_not_input(p, source.inputs())?;
+    }
+    let molecule = source.molecule();
+    let line = Line::new(from.position(molecule)?, to.position(molecule)?, extend)?;
+    let infos = fields
+        .iter()
+        .map(|f| source.info(f))
+        .collect::<Result<Vec<_>>>()?;
+    let sampler = source.sampler(&fields)?;
+    let s = line.distances(args.points);
+    let points: Vec<[f64; 3]> = s.iter().map(|&d| line.point(d)).collect();
+    let nf = fields.len();
+    let mut values = vec![0.0; points.len() * nf];
+    sampler.evaluate(&points, &mut values);
+
+    if let Some(path) = &args.csv {
+        write_bytes(
+            path,
+            source.inputs(),
+            csv(&args, &line, &s, &points, &values, &infos).as_bytes(),
+        )?;
+        eprintln!("wrote {}", path.display());
+    }
+    if let Some(path) = &args.png {
+        if infos.iter().any(|i| i.unit != infos[0].unit) {
+            return Err(Error::input("a profile chart needs fields of one unit")
+                .with_hint("draw orbitals and densities in separate charts"));
+        }
+        let columns: Vec<Vec<f64>> = (0..nf)
+            .map(|k| values.iter().skip(k).step_by(nf).copied().collect())
+            .collect();
+        let s_ang: Vec<f64> = s.iter().map(|v| bohr_to_angstrom(*v)).collect();
+        let nuclei = line
+            .nuclei_near(molecule, ON_LINE_BOHR)
+            .into_iter()
+            .map(|(i, d, _)| {
+                (
+                    format!("{}{}", molecule.atoms[i].element.symbol, i + 1),
+                    bohr_to_angstrom(d),
+                )
+            })
+            .collect();
+        let formula = formula_markup(&molecule.formula_with_charge());
+        let y_label = if nf == 1 {
+            format!("{} / {}", infos[0].quantity, infos[0].unit)
+        } else {
+            format!("{} / {}", infos[0].family, infos[0].unit)
+        };
+        let chart = Profile {
+            title: args.title.clone().unwrap_or_else(|| {
+                let list: Vec<&str> = infos.iter().map(|i| i.quantity.as_str()).collect();
+                format!(
+                    "{formula} · {} from {} to {}",
+                    list.join(", "),
+                    args.from,
+                    args.to
+                )
+            }),
+            s: &s_ang,
+            series: infos
+                .iter()
+                .zip(&columns)
+                .map(|(i, v)| Series {
+                    label: i.short.clone(),
+                    values: v,
+                })
+                .collect(),
+            y_label,
+            x_label: format!("distance from {} / Å", args.from),
+            nuclei,
+            footnotes: {
+                let mut f = vec![format!(
+                    "{} samples, {:.3} Å apart; {}.",
+                    s.len(),
+                    bohr_to_angstrom(s[1] - s[0]),
+                    source.provenance()
+                )];
+                if super::slice::minimal_basis(&source) {
+                    f.push(
+                        "Minimal basis: shapes and signs are qualitative; energies are upper bounds."
+                            .into(),
+                    );
+                }
+                f
+            },
+            width: args.size,
+            background: Colour::WHITE,
+        };
+        write_bytes(path, source.inputs(), &draw(&chart)?.encode_png())?;
+        eprintln!("wrote {}", path.display());
+    }
+    say!(
+        "profile of {} field(s) at {} points over {:.4} Å in {:.3} s",
+        nf,
+        s.len(),
+        bohr_to_angstrom(s[s.len() - 1] - s[0]),
+        started.elapsed().as_secs_f64()
+    );
+    print_notes(&source.notes())?;
+    Ok(())
+}
+
+/// A length with an optional unit suffix: "2", "2ang", "2Å", "3.5bohr".
+pub fn parse_length(text: &str, default: LengthUnit) -> Result<f64> {
+    let t = text.trim().to_ascii_lowercase();
+    let (num, unit) = if let Some(n) = t.strip_suffix("bohr") {
+        (n, LengthUnit::Bohr)
+    } else if let Some(n) = ["angstrom", "ang", "å", "a"]
+        .iter()
+        .find_map(|s| t.strip_suffix(s))
+    {
+        (n, LengthUnit::Angstrom)
+    } else {
+        (t.as_str(), default)
+    };
+    num.trim()
+        .parse::<f64>()
+        .ok()
+        .filter(|v| v.is_finite() && *v >= 0.0)
+        .map(|v| unit.to_bohr(v))
+        .ok_or_else(|| {
+            Error::input(format!("cannot read the length {text:?}"))
+                .with_hint("give a number, optionally with ang or bohr, e.g. 2ang")
+        })
+}
+
+/// Numbers are written in Rust's shortest round-trip form, so reading them back
+/// gives exactly the values computed.
+fn csv(
+    args: &ProfileArgs,
+    line: &Line,
+    s: &[f64],
+    points: &[[f64; 3]],
+    values: &[f64],
+    infos: &[super::source::FieldInfo],
+) -> String {
+    let nf = infos.len();
+    let mut t = format!(
+        "# lobecast {} profile from {} to {} (extended by {} bohr at both ends) of {}\n\
+         # s: distance from the start point along the line; x, y, z: the sample point; lengths in bohr\n",
+        env!("CARGO_PKG_VERSION"),
+        args.from,
+        args.to,
+        line.extend,
+        args.source.display()
+    );
+    for (k, i) in infos.iter().enumerate() {
+        t += &format!("# field_{}: {}\n", k + 1, i.plain);
+    }
+    t += "s_bohr,x_bohr,y_bohr,z_bohr";
+    for k in 0..nf {
+        t += &format!(",field_{}", k + 1);
+    }
+    t += "\n";
+    for (i, (d, p)) in s.iter().zip(points).enumerate() {
+        t += &format!("{d:e},{:e},{:e},{:e}", p[0], p[1], p[2]);
+        for v in &values[i * nf..(i + 1) * nf] {
+            t += &format!(",{v:e}");
+        }
+        t += "\n";
+    }
+    t
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn lengths_take_suffixes() {
+        let a = LengthUnit::Angstrom;
+        assert_eq!(parse_length("3bohr", a).unwrap(), 3.0);
+        assert_eq!(
+            parse_length("2ang", LengthUnit::Bohr).unwrap(),
+            a.to_bohr(2.0)
+        );
+        assert_eq!(parse_length("2", a).unwrap(), a.to_bohr(2.0));
+        assert!(parse_length("-1", a).is_err());
+        assert!(parse_length("two", a).is_err());
+    }
+}

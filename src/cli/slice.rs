@@ -1,0 +1,297 @@
+//! `lobecast slice`: a PNG figure of one field, or several side by side, on a plane.
+
+use std::path::PathBuf;
+use std::time::Instant;
+
+use clap::{Args, ValueEnum};
+
+use super::common::{print_notes, say};
+use super::source::Source;
+use crate::chem::LengthUnit;
+use crate::chem::units::bohr_to_angstrom;
+use crate::error::{Error, Result};
+use crate::field::Field;
+use crate::grid::plane::{Axis, PlaneSpec, Window};
+use crate::output::{check_not_input, write_bytes};
+use crate::render::slice::{Contours, Figure, Nucleus, Panel, Style, render};
+use crate::render::text::formula_markup;
+use crate::render::{Colour, Scale};
+
+/// Default space around the projected nuclei (Å): the 1s tails of hydrogen fall below
+/// 1 % of their peak within it (exp(−4.7) for ζ = 1).
+pub const DEFAULT_PADDING_ANGSTROM: f64 = 2.5;
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum Background {
+    White,
+    Transparent,
+}
+
+#[derive(Debug, Args)]
+pub struct SliceArgs {
+    /// Model file (TOML)
+    pub source: PathBuf,
+    /// Field to draw: orbital:N, orbital-density:N, orbital-deformation:N (N = number,
+    /// homo, lumo, …) or density
+    #[arg(long, required_unless_present = "panels", conflicts_with = "panels")]
+    pub field: Option<String>,
+    /// Several fields side by side on the same plane, comma-separated
+    #[arg(long, value_name = "FIELD,FIELD,…")]
+    pub panels: Option<String>,
+    /// Put all panels on one colour scale, so their magnitudes compare honestly
+    #[arg(long, requires = "panels")]
+    pub shared_scale: bool,
+    /// Maps per row for --panels [default: all in one row up to 3, else a square-ish grid]
+    #[arg(long)]
+    pub columns: Option<usize>,
+    /// xy, xz, yz (with @offset along the missing axis, in --units), atoms:I,J,K or atoms:I,J
+    #[arg(long)]
+    pub plane: String,
+    /// With --plane atoms:I,J: the direction that, with the bond, spans the plane
+    /// [default: the axis most nearly perpendicular to the bond]
+    #[arg(long, value_enum)]
+    pub up: Option<Axis>,
+    /// Output PNG file
+    #[arg(long, value_name = "FILE")]
+    pub png: PathBuf,
+    /// Contour levels per sign, evenly spaced between 0 and the largest |value|; 0 for none
+    #[arg(long, default_value_t = 4, conflicts_with = "levels")]
+    pub contours: usize,
+    /// Explicit contour levels, comma-separated, in the field's unit
+    #[arg(long, value_name = "A,B,C", allow_hyphen_values = true)]
+    pub levels: Option<String>,
+    /// Also draw the zero contour (the nodal line of an orbital), solid and heavier
+    #[arg(long)]
+    pub zero_contour: bool,
+    /// Colour scale by its colorous name [default: PURPLE_ORANGE for signed fields, VIRIDIS otherwise]
+    #[arg(long)]
+    pub scale: Option<String>,
+    /// Logarithmic colours for non-negative fields, over this many decades below the maximum
+    #[arg(long, value_name = "DECADES", num_args = 0..=1, default_missing_value = "4")]
+    pub log: Option<f64>,
+    /// Show atom numbers beside the element symbols
+    #[arg(long)]
+    pub numbers: bool,
+    /// Title instead of the automatic one (^{…} raises, _{…} lowers)
+    #[arg(long)]
+    pub title: Option<String>,
+    /// Width of the figure in pixels
+    #[arg(long, default_value_t = 1000)]
+    pub size: u32,
+    /// Physical window W or W,H (in --units), centred on the nuclei
+    /// [default: the nuclei plus 2.5 Å on every side]
+    #[arg(long, value_name = "W[,H]")]
+    pub extent: Option<String>,
+    /// Unit of --extent and of a plane offset
+    #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
+    pub units: LengthUnit,
+    #[arg(long, value_enum, default_value_t = Background::White)]
+    pub background: Background,
+}
+
+pub fn run(args: SliceArgs) -> Result<()> {
+    let started = Instant::now();
+    let field_text = args
+        .panels
+        .clone()
+        .or(args.field.clone())
+        .unwrap_or_default();
+    let fields = field_text
+        .split(',')
+        .filter(|s| !s.trim().is_empty())
+        .map(Field::parse)
+        .collect::<Result<Vec<_>>>()?;
+    let spec = PlaneSpec::parse(&args.plane, args.units)?;
+    let scale = args.scale.as_deref().map(Scale::by_name).transpose()?;
+    let contours = match &args.levels {
+        Some(l) => Contours::Levels(parse_levels(l)?),
+        None => Contours::Auto(args.contours),
+    };
+    if let Some(d) = args.log
+        && !(d.is_finite() && d > 0.0 && d <= 12.0)
+    {
+        return Err(Error::input(format!(
+            "--log takes 0 < decades ≤ 12, got {d}"
+        )));
+    }
+    let source = Source::load(&args.source)?;
+    check_not_input(&args.png, source.inputs())?;
+    let molecule = source.molecule();
+    let plane = spec.resolve(molecule, args.up)?;
+    let window = match &args.extent {
+        Some(e) => {
+            let (w, h) = parse_extent(e, args.units)?;
+            let centre = plane.window_around(molecule, 0.0).centre();
+            Window::centred(centre, w, h)
+        }
+        None => plane.window_around(molecule, args.units_padding()),
+    };
+    let infos = fields
+        .iter()
+        .map(|f| source.info(f))
+        .collect::<Result<Vec<_>>>()?;
+    if args.log.is_some() && infos.iter().any(|i| i.signed) {
+        return Err(
+            Error::input("--log is for non-negative fields; this one takes both signs")
+                .with_hint("signed fields are drawn on a linear scale symmetric about zero"),
+        );
+    }
+    let sampler = source.sampler(&fields)?;
+    let nuclei = molecule
+        .atoms
+        .iter()
+        .enumerate()
+        .map(|(i, a)| {
+            let (u, v, d) = plane.project(a.position);
+            Nucleus {
+                symbol: a.element.symbol.to_string(),
+                number: i + 1,
+                u,
+                v,
+                distance: d,
+                near: d.abs() <= LengthUnit::Angstrom.to_bohr(a.element.covalent_radius_angstrom),
+            }
+        })
+        .collect();
+    let formula = formula_markup(&molecule.formula_with_charge());
+    let title = args.title.clone().unwrap_or_else(|| {
+        if infos.len() == 1 {
+            format!("{formula} · {}", infos[0].heading)
+        } else {
+            let list: Vec<&str> = infos.iter().map(|i| i.quantity.as_str()).collect();
+            format!("{formula} · {}", list.join(", "))
+        }
+    });
+    let mut footnotes = vec![format!("{}; {}", plane.description, source.provenance())];
+    if minimal_basis(&source) {
+        footnotes.push(
+            "Minimal basis: shapes and signs are qualitative; energies are upper bounds."
+                .to_string(),
+        );
+    }
+    if fields
+        .iter()
+        .any(|f| matches!(f, Field::OrbitalDeformation(_)))
+    {
+        footnotes.push(
+            "Δρ_{N} = |ψ_{N}|^{2} − Σ_{μ} q_{μ} φ_{μ}^{2}, with q_{μ} the Mulliken gross populations of orbital N."
+                .to_string(),
+        );
+    }
+    if args.shared_scale {
+        footnotes.push("All panels share one colour scale.".to_string());
+    }
+    let figure = Figure {
+        title,
+        footnotes,
+        plane,
+        window,
+        nuclei,
+        panels: infos
+            .iter()
+            .map(|i| Panel {
+                heading: i.short.clone(),
+                quantity: i.quantity.clone(),
+                family: i.family.clone(),
+                unit: i.unit.clone(),
+                signed: i.signed,
+            })
+            .collect(),
+    };
+    let style = Style {
+        width: args.size,
+        background: match args.background {
+            Background::White => Colour::WHITE,
+            Background::Transparent => Colour::TRANSPARENT,
+        },
+        scale,
+        log_decades: args.log,
+        contours,
+        zero_contour: args.zero_contour,
+        nuclei: true,
+        numbers: args.numbers,
+        shared_scale: args.shared_scale,
+        columns: args.columns.unwrap_or(0),
+    };
+    let nf = fields.len();
+    let mut eval_seconds = 0.0;
+    let rendered = render(&figure, &style, |grid| {
+        let t = Instant::now();
+        let all = grid.sample(nf, |p, v| sampler.evaluate(p, v));
+        eval_seconds = t.elapsed().as_secs_f64();
+        (0..nf)
+            .map(|k| all.iter().skip(k).step_by(nf).copied().collect())
+            .collect()
+    })?;
+    write_bytes(&args.png, source.inputs(), &rendered.canvas.encode_png())?;
+    let g = &rendered.grid;
+    let samples = g.nx * g.ny * nf;
+    say!(
+        "wrote {}: {}×{} px; {} map(s) of {}×{} samples ({:.2} × {:.2} Å), evaluated in {:.3} s ({:.1} million samples/s); total {:.2} s",
+        args.png.display(),
+        rendered.canvas.width(),
+        rendered.canvas.height(),
+        nf,
+        g.nx,
+        g.ny,
+        bohr_to_angstrom(g.window.width()),
+        bohr_to_angstrom(g.window.height()),
+        eval_seconds,
+        samples as f64 / eval_seconds.max(1e-9) / 1e6,
+        started.elapsed().as_secs_f64()
+    );
+    for (info, m) in infos.iter().zip(&rendered.maps) {
+        let (lo, hi) = m.mapping.range();
+        say!("  {}: colour range {lo:.6e} to {hi:.6e}", info.plain);
+    }
+    print_notes(&source.notes())?;
+    Ok(())
+}
+
+/// Whether the source's notes carry the minimal-basis caution, which figures repeat.
+pub fn minimal_basis(source: &Source) -> bool {
+    source
+        .notes()
+        .iter()
+        .any(|n| n.starts_with("minimal basis"))
+}
+
+impl SliceArgs {
+    fn units_padding(&self) -> f64 {
+        LengthUnit::Angstrom.to_bohr(DEFAULT_PADDING_ANGSTROM)
+    }
+}
+
+fn parse_levels(text: &str) -> Result<Vec<f64>> {
+    let levels = text
+        .split(',')
+        .map(|s| s.trim().parse::<f64>().ok().filter(|v| v.is_finite() && *v != 0.0))
+        .collect::<Option<Vec<_>>>()
+        .ok_or_else(|| {
+            Error::input(format!("cannot read --levels {text:?}"))
+                .with_hint("give non-zero numbers separated by commas, e.g. -0.05,0.05,0.1 (use --zero-contour for 0)")
+        })?;
+    Ok(levels)
+}
+
+/// `W` (a square) or `W,H`, in `unit`, to bohr.
+fn parse_extent(text: &str, unit: LengthUnit) -> Result<(f64, f64)> {
+    let v = text
+        .split(',')
+        .map(|s| {
+            s.trim()
+                .parse::<f64>()
+                .ok()
+                .filter(|v| v.is_finite() && *v > 0.0)
+        })
+        .collect::<Option<Vec<_>>>()
+        .ok_or_else(|| {
+            Error::input(format!("cannot read --extent {text:?}"))
+                .with_hint("give a positive width W, or W,H")
+        })?;
+    match v[..] {
+        [w] => Ok((unit.to_bohr(w), unit.to_bohr(w))),
+        [w, h] => Ok((unit.to_bohr(w), unit.to_bohr(h))),
+        _ => Err(Error::input(format!("cannot read --extent {text:?}")).with_hint("give W or W,H")),
+    }
+}

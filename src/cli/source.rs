@@ -1,0 +1,272 @@
+//! What a figure or profile is drawn from. A `Source` gives the atoms and evaluates
+//! fields at arbitrary points; the figure code never knows which kind it has.
+//!
+//! Plug-in point: a new kind of input is one more `Source` variant, one more arm in
+//! `load`, `molecule`, `sampler`, `info` and `provenance`, and one `Sampler` variant
+//! whose `evaluate` fills the values. Model and orbital files give exact values;
+//! cube files are interpolated trilinearly (`cube::Volume::value_at`).
+
+use std::path::{Path, PathBuf};
+
+use crate::chem::elements::by_number;
+use crate::chem::units::hartree_to_ev;
+use crate::chem::{Atom, Molecule};
+use crate::cube::Volume;
+use crate::error::{Error, Result};
+use crate::field::{Field, FieldSampler};
+use crate::model;
+use crate::solve::{OrbitalSet, orbitals_for};
+
+pub enum Source {
+    /// Orbitals built from a model file or read from an orbital file: exact values
+    /// anywhere.
+    Orbitals {
+        set: OrbitalSet,
+        inputs: Vec<PathBuf>,
+    },
+    /// A cube file: stored values, interpolated between grid points.
+    Volume {
+        volume: Volume,
+        molecule: Molecule,
+        inputs: Vec<PathBuf>,
+    },
+}
+
+/// Evaluates prepared fields at points, values interleaved per point.
+pub enum Sampler<'a> {
+    Orbitals(FieldSampler),
+    /// Stored field indices (from 0) of a volume.
+    Volume(&'a Volume, Vec<usize>),
+}
+
+impl Sampler<'_> {
+    pub fn evaluate(&self, points: &[[f64; 3]], out: &mut [f64]) {
+        match self {
+            Sampler::Orbitals(s) => s.evaluate(points, out),
+            Sampler::Volume(v, fields) => {
+                let nf = fields.len();
+                for (p, vals) in points.iter().zip(out.chunks_exact_mut(nf)) {
+                    for (o, &f) in vals.iter_mut().zip(fields) {
+                        // Outside the cube's box there is no value: drawn as zero.
+                        *o = v.value_at(f, *p).unwrap_or(0.0);
+                    }
+                }
+            }
+        }
+    }
+}
+
+/// How a field is labelled in figures (markup) and in plain output.
+#[derive(Debug, Clone)]
+pub struct FieldInfo {
+    /// "orbital 1, E = −0.5648 hartree (−15.37 eV)".
+    pub heading: String,
+    /// "ψ_{1}".
+    pub quantity: String,
+    /// "ψ": the symbol without the orbital number.
+    pub family: String,
+    /// "ψ_{1}, E = −0.5648 hartree": a panel heading.
+    pub short: String,
+    /// "bohr^{−3/2}".
+    pub unit: String,
+    /// Plain text for CSV headers and messages.
+    pub plain: String,
+    pub signed: bool,
+}
+
+impl Source {
+    /// Reads a source by its file type.
+    pub fn load(path: &Path) -> Result<Self> {
+        let ext = path
+            .extension()
+            .map(|e| e.to_string_lossy().to_ascii_lowercase())
+            .unwrap_or_default();
+        match ext.as_str() {
+            "toml" | "json" => {
+                let m = model::load(path)?;
+                let set = orbitals_for(&m)?;
+                Ok(Source::Orbitals { set, inputs: m.inputs })
+            }
+            "cube" | "gz" => {
+                let volume = Volume::read(path)?;
+                let atoms = volume
+                    .info
+                    .header
+                    .atoms
+                    .iter()
+                    .map(|a| {
+                        let element = by_number(a.atomic_number).ok_or_else(|| {
+                            Error::input(format!("{}: atomic number {} is outside H–Ar", path.display(), a.atomic_number))
+                        })?;
+                        Ok(Atom { element, position: a.position })
+                    })
+                    .collect::<Result<Vec<_>>>()?;
+                let molecule = Molecule::new(atoms, 0)?;
+                Ok(Source::Volume { volume, molecule, inputs: vec![path.to_path_buf()] })
+            }
+            _ => Err(Error::input(format!(
+                "cannot use {} as a source: expected a model file (.toml), an orbital file (.json) or a cube file (.cube, .cube.gz)",
+                path.display()
+            ))
+            .with_hint("e.g. examples/h2-cation.toml")),
+        }
+    }
+
+    pub fn molecule(&self) -> &Molecule {
+        match self {
+            Source::Orbitals { set, .. } => &set.molecule,
+            Source::Volume { molecule, .. } => molecule,
+        }
+    }
+
+    /// Every file read, so that no output replaces one of them.
+    pub fn inputs(&self) -> &[PathBuf] {
+        match self {
+            Source::Orbitals { inputs, .. } | Source::Volume { inputs, .. } => inputs,
+        }
+    }
+
+    /// Statements that must go with the figure (the minimal-basis caution, …).
+    pub fn notes(&self) -> Vec<String> {
+        match self {
+            Source::Orbitals { set, .. } => set.notes.clone(),
+            Source::Volume { .. } => Vec::new(),
+        }
+    }
+
+    /// How the values were obtained, for captions.
+    pub fn provenance(&self) -> String {
+        match self {
+            Source::Orbitals { set, .. } => {
+                format!(
+                    "{}; values computed exactly at every sample point",
+                    set.method
+                )
+            }
+            Source::Volume { inputs, .. } => format!(
+                "values of the cube file {} interpolated trilinearly between its points (zero outside its box)",
+                inputs[0].display()
+            ),
+        }
+    }
+
+    pub fn sampler(&self, fields: &[Field]) -> Result<Sampler<'_>> {
+        match self {
+            Source::Orbitals { set, .. } => Ok(Sampler::Orbitals(FieldSampler::new(set, fields)?)),
+            Source::Volume { volume, .. } => {
+                let idx = fields
+                    .iter()
+                    .map(|f| stored_index(volume, f))
+                    .collect::<Result<Vec<_>>>()?;
+                Ok(Sampler::Volume(volume, idx))
+            }
+        }
+    }
+
+    pub fn info(&self, field: &Field) -> Result<FieldInfo> {
+        match self {
+            Source::Orbitals { set, .. } => orbital_info(set, field),
+            Source::Volume { volume, .. } => {
+                let k = stored_index(volume, field)?;
+                let signed = volume.field_values(k).any(|v| v < 0.0);
+                Ok(FieldInfo {
+                    heading: format!("stored field {} of the cube file", k + 1),
+                    quantity: format!("f_{{{}}}", k + 1),
+                    family: "f".into(),
+                    short: format!("f_{{{}}}", k + 1),
+                    unit: "units of the file".into(),
+                    plain: format!("stored field {} (units of the file)", k + 1),
+                    signed,
+                })
+            }
+        }
+    }
+}
+
+/// Which stored field of a cube a `--field` means: `stored:K`, or `orbital:N` where the
+/// file's orbital-index line lists N.
+fn stored_index(volume: &Volume, field: &Field) -> Result<usize> {
+    let nf = volume.fields();
+    let listed = volume
+        .info
+        .header
+        .orbital_numbers
+        .clone()
+        .unwrap_or_default();
+    match field {
+        Field::Stored(k) if *k <= nf => Ok(k - 1),
+        Field::Orbital(crate::solve::OrbitalSelector::Number(n)) if listed.contains(n) => {
+            Ok(listed.iter().position(|x| x == n).expect("listed"))
+        }
+        _ => Err(Error::input(format!("the cube file holds {nf} stored field(s); {field} is not among them"))
+            .with_hint(format!("use --field stored:K with K from 1 to {nf}, or orbital:N for an orbital listed in the file ({listed:?})"))),
+    }
+}
+
+fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
+    if matches!(field, Field::Stored(_)) {
+        return Err(crate::field::stored_needs_cube());
+    }
+    let n = field.orbital_number(set)?;
+    let energy = |n: usize| {
+        let e = set.orbitals[n - 1].energy;
+        format!(
+            "E = {} hartree ({} eV)",
+            minus(format!("{e:.4}")),
+            minus(format!("{:.2}", hartree_to_ev(e)))
+        )
+    };
+    let (heading, quantity, plain) = match field {
+        Field::Orbital(_) => (
+            format!("orbital {n}, {}", energy(n)),
+            format!("ψ_{{{n}}}"),
+            format!("orbital {n}"),
+        ),
+        Field::OrbitalDensity(_) => (
+            format!("density of orbital {n}, {}", energy(n)),
+            format!("|ψ_{{{n}}}|^{{2}}"),
+            format!("orbital density {n}"),
+        ),
+        Field::OrbitalDeformation(_) => (
+            format!("deformation density of orbital {n}, {}", energy(n)),
+            format!("Δρ_{{{n}}}"),
+            format!("orbital deformation density {n}"),
+        ),
+        Field::Density | Field::Stored(_) => (
+            "electron density".to_string(),
+            "ρ".to_string(),
+            "electron density".to_string(),
+        ),
+    };
+    let unit = match field {
+        Field::Orbital(_) => "bohr^{−3/2}",
+        _ => "e bohr^{−3}",
+    };
+    let short = match field {
+        Field::Density => quantity.clone(),
+        _ => format!(
+            "{quantity}, E_{{{n}}} = {} hartree",
+            minus(format!("{:.4}", set.orbitals[n - 1].energy))
+        ),
+    };
+    let family = match field {
+        Field::Orbital(_) => "ψ",
+        Field::OrbitalDensity(_) => "|ψ|^{2}",
+        Field::OrbitalDeformation(_) => "Δρ",
+        Field::Density | Field::Stored(_) => "ρ",
+    };
+    Ok(FieldInfo {
+        heading,
+        family: family.to_string(),
+        short,
+        quantity,
+        unit: unit.to_string(),
+        plain: format!("{plain} ({})", field.unit()),
+        signed: field.is_signed(),
+    })
+}
+
+/// Replaces a hyphen-minus with a true minus sign for figures.
+pub fn minus(s: String) -> String {
+    s.replace('-', "−")
+}

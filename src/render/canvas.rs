@@ -1,0 +1,297 @@
+//! A pixel canvas (tiny-skia underneath: anti-aliased strokes, dashes and fills)
+//! with text from the embedded font, encoded to PNG at the end.
+
+use tiny_skia::{
+    FillRule, LineCap, LineJoin, Paint, PathBuilder, Pixmap, PremultipliedColorU8, Rect, Stroke,
+    StrokeDash, Transform,
+};
+
+use super::text;
+
+/// A straight (not premultiplied) sRGB colour with alpha.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Colour {
+    pub r: u8,
+    pub g: u8,
+    pub b: u8,
+    pub a: u8,
+}
+
+impl Colour {
+    pub const fn rgb(r: u8, g: u8, b: u8) -> Self {
+        Colour { r, g, b, a: 255 }
+    }
+    pub const fn with_alpha(self, a: u8) -> Self {
+        Colour { a, ..self }
+    }
+    pub const BLACK: Colour = Colour::rgb(0, 0, 0);
+    pub const WHITE: Colour = Colour::rgb(255, 255, 255);
+    pub const INK: Colour = Colour::rgb(34, 34, 34);
+    pub const GREY: Colour = Colour::rgb(110, 110, 110);
+    pub const TRANSPARENT: Colour = Colour {
+        r: 255,
+        g: 255,
+        b: 255,
+        a: 0,
+    };
+}
+
+/// Where a text's anchor point sits on the text's box.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum HAlign {
+    Left,
+    Centre,
+    Right,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum VAlign {
+    Top,
+    Middle,
+    Baseline,
+    Bottom,
+}
+
+pub struct Canvas {
+    pub pixmap: Pixmap,
+}
+
+fn paint(c: Colour) -> Paint<'static> {
+    let mut p = Paint::default();
+    p.set_color_rgba8(c.r, c.g, c.b, c.a);
+    p.anti_alias = true;
+    p
+}
+
+impl Canvas {
+    pub fn new(width: u32, height: u32, background: Colour) -> Self {
+        let mut pixmap = Pixmap::new(width.max(1), height.max(1)).expect("non-zero canvas");
+        pixmap.fill(tiny_skia::Color::from_rgba8(
+            background.r,
+            background.g,
+            background.b,
+            background.a,
+        ));
+        Canvas { pixmap }
+    }
+
+    pub fn width(&self) -> u32 {
+        self.pixmap.width()
+    }
+
+    pub fn height(&self) -> u32 {
+        self.pixmap.height()
+    }
+
+    /// The straight (un-premultiplied) colour of a pixel.
+    pub fn pixel(&self, x: u32, y: u32) -> Colour {
+        let p = self.pixmap.pixel(x, y).expect("pixel inside the canvas");
+        let c = p.demultiply();
+        Colour {
+            r: c.red(),
+            g: c.green(),
+            b: c.blue(),
+            a: c.alpha(),
+        }
+    }
+
+    /// Copies opaque pixels into the rectangle at (x0, y0), row-major, `w` wide.
+    pub fn put_pixels(&mut self, x0: u32, y0: u32, w: u32, pixels: &[[u8; 3]]) {
+        let width = self.width();
+        let height = self.height();
+        let data = self.pixmap.pixels_mut();
+        for (i, p) in pixels.iter().enumerate() {
+            let (x, y) = (x0 + i as u32 % w, y0 + i as u32 / w);
+            if x < width && y < height {
+                data[(y * width + x) as usize] =
+                    PremultipliedColorU8::from_rgba(p[0], p[1], p[2], 255).expect("opaque");
+            }
+        }
+    }
+
+    pub fn fill_rect(&mut self, x: f32, y: f32, w: f32, h: f32, c: Colour) {
+        if let Some(r) = Rect::from_xywh(x, y, w, h) {
+            self.pixmap
+                .fill_rect(r, &paint(c), Transform::identity(), None);
+        }
+    }
+
+    /// Strokes a polyline; `dash` gives on/off lengths in pixels.
+    pub fn stroke(&mut self, points: &[(f32, f32)], width: f32, c: Colour, dash: Option<&[f32]>) {
+        if points.len() < 2 {
+            return;
+        }
+        let mut pb = PathBuilder::new();
+        pb.move_to(points[0].0, points[0].1);
+        for p in &points[1..] {
+            pb.line_to(p.0, p.1);
+        }
+        let Some(path) = pb.finish() else { return };
+        let stroke = Stroke {
+            width,
+            line_cap: LineCap::Butt,
+            line_join: LineJoin::Round,
+            dash: dash.and_then(|d| StrokeDash::new(d.to_vec(), 0.0)),
+            ..Stroke::default()
+        };
+        self.pixmap
+            .stroke_path(&path, &paint(c), &stroke, Transform::identity(), None);
+    }
+
+    pub fn stroke_rect(&mut self, x: f32, y: f32, w: f32, h: f32, width: f32, c: Colour) {
+        let pts = [(x, y), (x + w, y), (x + w, y + h), (x, y + h), (x, y)];
+        self.stroke(&pts, width, c, None);
+    }
+
+    /// A circle filled with `fill` and outlined with `line` of width `lw`.
+    pub fn circle(&mut self, cx: f32, cy: f32, r: f32, fill: Colour, line: Colour, lw: f32) {
+        let Some(path) = PathBuilder::from_circle(cx, cy, r) else {
+            return;
+        };
+        self.pixmap.fill_path(
+            &path,
+            &paint(fill),
+            FillRule::Winding,
+            Transform::identity(),
+            None,
+        );
+        if lw > 0.0 {
+            let stroke = Stroke {
+                width: lw,
+                ..Stroke::default()
+            };
+            self.pixmap
+                .stroke_path(&path, &paint(line), &stroke, Transform::identity(), None);
+        }
+    }
+
+    /// Blends colour `c` with coverage `cover` (0–1) into one pixel.
+    pub fn blend(&mut self, x: i32, y: i32, c: Colour, cover: f32) {
+        let (w, h) = (self.width() as i32, self.height() as i32);
+        if x < 0 || y < 0 || x >= w || y >= h || cover <= 0.0 {
+            return;
+        }
+        let a = (cover.min(1.0) * c.a as f32 / 255.0).clamp(0.0, 1.0);
+        let idx = (y * w + x) as usize;
+        let dst = self.pixmap.pixels()[idx];
+        let mix = |s: u8, d: u8| (s as f32 * a + d as f32 * (1.0 - a)).round() as u8;
+        let out_a = mix(255, dst.alpha());
+        // Premultiplied source over premultiplied destination.
+        let r = mix(c.r, dst.red()).min(out_a);
+        let g = mix(c.g, dst.green()).min(out_a);
+        let b = mix(c.b, dst.blue()).min(out_a);
+        self.pixmap.pixels_mut()[idx] =
+            PremultipliedColorU8::from_rgba(r, g, b, out_a).expect("valid premultiplied colour");
+    }
+
+    /// Draws one line of markup at `size` px anchored at (x, y).
+    pub fn text(&mut self, s: &str, size: f32, x: f32, y: f32, align: (HAlign, VAlign), c: Colour) {
+        let e = text::measure(s, size);
+        let (dx, dy) = offsets(&e, align);
+        let (ox, oy) = ((x + dx).round() as i32, (y + dy).round() as i32);
+        let mut cover = Vec::new();
+        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
+        for (px, py, v) in cover {
+            self.blend(ox + px, oy + py, c, v);
+        }
+    }
+
+    /// Draws text turned 90° anticlockwise (reading upwards), for vertical axis labels;
+    /// `align` refers to the turned text's own frame.
+    pub fn text_up(
+        &mut self,
+        s: &str,
+        size: f32,
+        x: f32,
+        y: f32,
+        align: (HAlign, VAlign),
+        c: Colour,
+    ) {
+        let e = text::measure(s, size);
+        let (dx, dy) = offsets(&e, align);
+        let mut cover = Vec::new();
+        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
+        for (px, py, v) in cover {
+            // Text frame (u right, w down) → canvas: u runs up, w runs right.
+            let (u, w) = (px as f32 + dx, py as f32 + dy);
+            self.blend((x + w).round() as i32, (y - u).round() as i32, c, v);
+        }
+    }
+
+    /// Draws text turned 90° clockwise (reading downwards).
+    pub fn text_down(
+        &mut self,
+        s: &str,
+        size: f32,
+        x: f32,
+        y: f32,
+        align: (HAlign, VAlign),
+        c: Colour,
+    ) {
+        let e = text::measure(s, size);
+        let (dx, dy) = offsets(&e, align);
+        let mut cover = Vec::new();
+        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
+        for (px, py, v) in cover {
+            let (u, w) = (px as f32 + dx, py as f32 + dy);
+            self.blend((x - w).round() as i32, (y + u).round() as i32, c, v);
+        }
+    }
+
+    /// The canvas shrunk by an integer `factor`, each pixel the mean of a block:
+    /// drawing large and shrinking smooths what was placed on whole pixels.
+    pub fn downsample(&self, factor: u32) -> Canvas {
+        let f = factor.max(1);
+        let (w, h) = (self.width() / f, self.height() / f);
+        let mut out = Pixmap::new(w.max(1), h.max(1)).expect("non-zero canvas");
+        let src = self.pixmap.pixels();
+        let sw = self.width() as usize;
+        let n = f * f;
+        for y in 0..h as usize {
+            for x in 0..w as usize {
+                let mut acc = [0u32; 4];
+                for dy in 0..f as usize {
+                    for dx in 0..f as usize {
+                        let p = src[(y * f as usize + dy) * sw + x * f as usize + dx];
+                        acc[0] += p.red() as u32;
+                        acc[1] += p.green() as u32;
+                        acc[2] += p.blue() as u32;
+                        acc[3] += p.alpha() as u32;
+                    }
+                }
+                let m = |v: u32| ((v + n / 2) / n) as u8;
+                let a = m(acc[3]);
+                out.pixels_mut()[y * w as usize + x] = PremultipliedColorU8::from_rgba(
+                    m(acc[0]).min(a),
+                    m(acc[1]).min(a),
+                    m(acc[2]).min(a),
+                    a,
+                )
+                .expect("valid premultiplied colour");
+            }
+        }
+        Canvas { pixmap: out }
+    }
+
+    pub fn encode_png(&self) -> Vec<u8> {
+        self.pixmap
+            .encode_png()
+            .expect("encoding an in-memory PNG cannot fail")
+    }
+}
+
+/// Offsets from the anchor to the left end of the baseline.
+pub fn offsets(e: &text::Extent, (h, v): (HAlign, VAlign)) -> (f32, f32) {
+    let dx = match h {
+        HAlign::Left => 0.0,
+        HAlign::Centre => -e.width / 2.0,
+        HAlign::Right => -e.width,
+    };
+    let dy = match v {
+        VAlign::Top => e.ascent,
+        VAlign::Middle => (e.ascent - e.descent) / 2.0,
+        VAlign::Baseline => 0.0,
+        VAlign::Bottom => -e.descent,
+    };
+    (dx, dy)
+}

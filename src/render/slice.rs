@@ -1,0 +1,577 @@
+//! Slice figures: one map per field on a common plane, each with contours, nuclei,
+//! axes and a colour bar (or one shared bar), a title and a footnote. The layout is
+//! computed first so that the field is evaluated exactly at the map's own pixels.
+
+use crate::error::{Error, Result};
+use crate::grid::plane::{PixelGrid, Plane, Window};
+
+use super::axes::{self, Axes};
+use super::canvas::{Canvas, Colour, HAlign, VAlign};
+use super::colorbar::{self, Bar};
+use super::contour::{self, Grid};
+use super::scale::{Kind, Mapping, Scale, mapping_for};
+use super::text;
+
+/// One field to draw.
+#[derive(Debug, Clone)]
+pub struct Panel {
+    /// Heading over the map when there are several (markup).
+    pub heading: String,
+    /// The quantity's symbol for the colour bar, e.g. "ψ_{1}" (markup).
+    pub quantity: String,
+    /// The symbol without the orbital number, e.g. "ψ", for a shared bar.
+    pub family: String,
+    pub unit: String,
+    pub signed: bool,
+}
+
+/// A nucleus as the figure shows it.
+#[derive(Debug, Clone)]
+pub struct Nucleus {
+    pub symbol: String,
+    /// 1-based, shown with `numbers`.
+    pub number: usize,
+    /// Position in the plane (bohr) and distance from it (bohr).
+    pub u: f64,
+    pub v: f64,
+    pub distance: f64,
+    /// Close enough to the plane to be drawn emphasised.
+    pub near: bool,
+}
+
+#[derive(Debug, Clone)]
+pub struct Figure {
+    pub title: String,
+    pub footnotes: Vec<String>,
+    pub plane: Plane,
+    pub window: Window,
+    pub nuclei: Vec<Nucleus>,
+    pub panels: Vec<Panel>,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum Contours {
+    /// This many levels per sign, evenly spaced; 0 for none.
+    Auto(usize),
+    Levels(Vec<f64>),
+}
+
+#[derive(Debug, Clone)]
+pub struct Style {
+    /// Width of the whole figure in pixels; everything scales with it.
+    pub width: u32,
+    pub background: Colour,
+    /// `None`: the default for each field's sign.
+    pub scale: Option<Scale>,
+    /// Logarithmic mapping over this many decades (non-negative fields only).
+    pub log_decades: Option<f64>,
+    pub contours: Contours,
+    pub zero_contour: bool,
+    pub nuclei: bool,
+    pub numbers: bool,
+    pub shared_scale: bool,
+    /// Maps per row; 0 picks one.
+    pub columns: usize,
+}
+
+impl Default for Style {
+    fn default() -> Self {
+        Style {
+            width: 1000,
+            background: Colour::WHITE,
+            scale: None,
+            log_decades: None,
+            contours: Contours::Auto(4),
+            zero_contour: false,
+            nuclei: true,
+            numbers: false,
+            shared_scale: false,
+            columns: 0,
+        }
+    }
+}
+
+/// Where things went, for callers and tests.
+#[derive(Debug, Clone)]
+pub struct Placed {
+    pub x: u32,
+    pub y: u32,
+    pub width: u32,
+    pub height: u32,
+    pub mapping: Mapping,
+}
+
+pub struct Rendered {
+    pub canvas: Canvas,
+    pub grid: PixelGrid,
+    pub maps: Vec<Placed>,
+    pub bars: Vec<Placed>,
+    /// The sampled values of each panel, row-major (row 0 at the top).
+    pub values: Vec<Vec<f64>>,
+}
+
+/// Text is never scaled below this fraction of its size at 1000 px.
+pub const MIN_TEXT_SCALE: f32 = 0.75;
+
+/// Sizes in pixels at a figure width of 1000; multiplied by width/1000.
+struct Sizes {
+    k: f32,
+    title: f32,
+    heading: f32,
+    font: f32,
+    foot: f32,
+    margin: f32,
+    left: f32,
+    bottom: f32,
+    bar: f32,
+    gap: f32,
+}
+
+impl Sizes {
+    fn new(width: u32) -> Self {
+        let k = width as f32 / 1000.0;
+        // Text keeps a readable minimum size in small figures.
+        let kt = k.max(MIN_TEXT_SCALE);
+        let font = 17.0 * kt;
+        // Room left of a map for tick labels and the axis name; the bar's room holds
+        // the gap, the bar, ticks, labels like "−0.3183" and the turned unit line.
+        let label = text::measure("−00.00", font).width;
+        let bar_labels = text::measure("−0.0000", font).width;
+        Sizes {
+            k,
+            title: 24.0 * kt,
+            heading: 19.0 * kt,
+            font,
+            foot: 14.0 * kt,
+            margin: 18.0 * k,
+            left: label + 6.0 * k + 3.0 * k + 6.0 * k + 1.5 * 1.1 * font,
+            bottom: 6.0 * k + 2.0 * k + 1.35 * font + 4.0 * k + 1.4 * 1.1 * font + 8.0 * k,
+            bar: 22.0 * k + 22.0 * k + 8.0 * k + bar_labels + 0.6 * font + 1.4 * 1.1 * font,
+            gap: 28.0 * k,
+        }
+    }
+}
+
+fn check(fig: &Figure, style: &Style) -> Result<()> {
+    if fig.panels.is_empty() {
+        return Err(Error::input("nothing to draw: no field given"));
+    }
+    if !(200..=10_000).contains(&style.width) {
+        return Err(Error::input(format!(
+            "--size must be between 200 and 10000 pixels, got {}",
+            style.width
+        )));
+    }
+    if !(fig.window.width() > 0.0 && fig.window.height() > 0.0) {
+        return Err(Error::input(
+            "the window must have a positive width and height",
+        ));
+    }
+    if let Some(s) = &style.scale {
+        for p in &fig.panels {
+            if p.signed && s.kind == Kind::Sequential {
+                return Err(Error::input(format!(
+                    "{} is a sequential scale, but the field takes both signs",
+                    s.name
+                ))
+                .with_hint("signed fields need a diverging scale, e.g. PURPLE_ORANGE"));
+            }
+        }
+    }
+    if style.shared_scale {
+        let first = &fig.panels[0];
+        if fig
+            .panels
+            .iter()
+            .any(|p| p.unit != first.unit || p.signed != first.signed)
+        {
+            return Err(Error::input(
+                "--shared-scale needs fields of one kind and unit (all orbitals, or all densities)",
+            )
+            .with_hint("draw orbitals and densities in separate figures, or drop --shared-scale"));
+        }
+    }
+    Ok(())
+}
+
+/// Lays the figure out, asks `sample` for the values of every panel at the map's
+/// pixel centres (one `Vec` per panel, row-major), and draws it.
+pub fn render(
+    fig: &Figure,
+    style: &Style,
+    sample: impl FnOnce(&PixelGrid) -> Vec<Vec<f64>>,
+) -> Result<Rendered> {
+    check(fig, style)?;
+    let s = Sizes::new(style.width);
+    let n = fig.panels.len();
+    let cols = match style.columns {
+        0 if n <= 3 => n,
+        0 => (n as f64).sqrt().ceil() as usize,
+        c => c.min(n),
+    };
+    let rows = n.div_ceil(cols);
+    let own_bars = !style.shared_scale;
+    let cell_extra = s.left + if own_bars { s.bar } else { 0.0 };
+    let shared = if own_bars { 0.0 } else { s.bar };
+    let avail = style.width as f32
+        - 2.0 * s.margin
+        - shared
+        - cols as f32 * cell_extra
+        - (cols as f32 - 1.0) * s.gap;
+    let map_w = avail / cols as f32;
+    if map_w < 60.0 {
+        return Err(Error::input(format!(
+            "--size {} leaves no room for {n} maps",
+            style.width
+        ))
+        .with_hint("raise --size or set fewer --columns"));
+    }
+    let nx = map_w.floor() as usize;
+    let ny = ((nx as f64) * fig.window.height() / fig.window.width())
+        .round()
+        .max(2.0) as usize;
+    if ny > 4 * nx.max(250) {
+        return Err(Error::input("the window is too tall for its width")
+            .with_hint("give --extent W,H with a less extreme ratio"));
+    }
+    let title_lines = fit_title(&fig.title, s.title, style.width as f32 - 2.0 * s.margin);
+    let head = if n > 1 { 1.6 * s.heading } else { 0.0 };
+    let top = s.margin + title_lines.len() as f32 * 1.3 * s.title + 10.0 * s.k;
+    let row_h = head + ny as f32 + s.bottom;
+    let foot_lines: Vec<String> = fig
+        .footnotes
+        .iter()
+        .flat_map(|f| text::wrap(f, s.foot, style.width as f32 - 2.0 * s.margin))
+        .collect();
+    let foot_h = foot_lines.len() as f32 * 1.35 * s.foot;
+    let height = (top + rows as f32 * row_h + foot_h + s.margin).ceil() as u32;
+
+    let grid = PixelGrid {
+        plane: fig.plane.clone(),
+        window: fig.window,
+        nx,
+        ny,
+    };
+    let values = sample(&grid);
+    assert_eq!(values.len(), n, "one set of values per panel");
+    let mut c = Canvas::new(style.width, height, style.background);
+
+    let scale_for = |p: &Panel| style.scale.unwrap_or_else(|| Scale::default_for(p.signed));
+    let log = |p: &Panel| if p.signed { None } else { style.log_decades };
+    let shared_mapping = style.shared_scale.then(|| {
+        let all: Vec<f64> = values.iter().flatten().copied().collect();
+        mapping_for(&all, fig.panels[0].signed, log(&fig.panels[0]))
+    });
+
+    let mut maps = Vec::new();
+    let mut bars = Vec::new();
+    let mut levels_seen = Vec::new();
+    for (i, (panel, vals)) in fig.panels.iter().zip(&values).enumerate() {
+        let (col, row) = (i % cols, i / cols);
+        let cell_x = s.margin + col as f32 * (cell_extra + map_w + s.gap);
+        let mx = (cell_x + s.left).round();
+        let my = (top + row as f32 * row_h + head).round();
+        let scale = scale_for(panel);
+        let mapping = shared_mapping.unwrap_or_else(|| mapping_for(vals, panel.signed, log(panel)));
+        let pixels: Vec<[u8; 3]> = vals
+            .iter()
+            .map(|v| {
+                let col = scale.at(mapping.t(*v));
+                [col.r, col.g, col.b]
+            })
+            .collect();
+        c.put_pixels(mx as u32, my as u32, nx as u32, &pixels);
+        let levels = levels_for(&style.contours, &mapping, panel.signed);
+        draw_contours(&mut c, vals, nx, ny, (mx, my), &levels, style, s.k);
+        if style.nuclei {
+            draw_nuclei(&mut c, &grid, &fig.nuclei, (mx, my), style.numbers, &s);
+        }
+        axes::draw(
+            &mut c,
+            &Axes {
+                x: mx,
+                y: my,
+                width: nx as f32,
+                height: ny as f32,
+                window: fig.window,
+                u_label: &fig.plane.u_label,
+                v_label: &fig.plane.v_label,
+                font: s.font,
+                k: s.k,
+            },
+        );
+        if n > 1 {
+            let hx = mx + nx as f32 / 2.0;
+            let room = (cell_extra - s.left + map_w).max(map_w);
+            c.text(
+                &panel.heading,
+                fit_size(&panel.heading, s.heading, room),
+                hx,
+                my - 0.45 * s.heading,
+                (HAlign::Centre, VAlign::Bottom),
+                Colour::INK,
+            );
+        }
+        maps.push(Placed {
+            x: mx as u32,
+            y: my as u32,
+            width: nx as u32,
+            height: ny as u32,
+            mapping,
+        });
+        if own_bars {
+            let bx = mx + nx as f32 + 22.0 * s.k;
+            bars.push(draw_bar(
+                &mut c,
+                (bx, my, ny as f32),
+                &scale,
+                mapping,
+                panel,
+                &levels,
+                &s,
+            ));
+        } else {
+            levels_seen = levels;
+        }
+    }
+    if let Some(mapping) = shared_mapping {
+        let last_col = cols.min(n) - 1;
+        let cell_x = s.margin + last_col as f32 * (cell_extra + map_w + s.gap);
+        let bx = cell_x + s.left + map_w.floor() + 22.0 * s.k;
+        let by = (top + head).round();
+        let bh = (rows - 1) as f32 * row_h + ny as f32;
+        let panel = &fig.panels[0];
+        let same = fig.panels.iter().all(|p| p.family == panel.family);
+        let quantity = Panel {
+            quantity: if same {
+                panel.family.clone()
+            } else {
+                "value".into()
+            },
+            ..panel.clone()
+        };
+        bars.push(draw_bar(
+            &mut c,
+            (bx, by, bh),
+            &scale_for(panel),
+            mapping,
+            &quantity,
+            &levels_seen,
+            &s,
+        ));
+    }
+    for (j, line) in title_lines.iter().enumerate() {
+        let y = s.margin + j as f32 * 1.3 * s.title;
+        c.text(
+            line,
+            s.title,
+            style.width as f32 / 2.0,
+            y,
+            (HAlign::Centre, VAlign::Top),
+            Colour::INK,
+        );
+    }
+    let mut fy = top + rows as f32 * row_h;
+    for f in &foot_lines {
+        c.text(
+            f,
+            s.foot,
+            s.margin,
+            fy,
+            (HAlign::Left, VAlign::Top),
+            Colour::GREY,
+        );
+        fy += 1.35 * s.foot;
+    }
+    Ok(Rendered {
+        canvas: c,
+        grid,
+        maps,
+        bars,
+        values,
+    })
+}
+
+fn draw_bar(
+    c: &mut Canvas,
+    (x, y, h): (f32, f32, f32),
+    scale: &Scale,
+    mapping: Mapping,
+    panel: &Panel,
+    levels: &[f64],
+    s: &Sizes,
+) -> Placed {
+    let width = (22.0 * s.k).round();
+    colorbar::draw(
+        c,
+        &Bar {
+            x,
+            y,
+            width,
+            height: h,
+            scale,
+            mapping,
+            quantity: &panel.quantity,
+            unit: &panel.unit,
+            levels,
+            font: s.font,
+            k: s.k,
+        },
+    );
+    Placed {
+        x: x.round() as u32,
+        y: y.round() as u32,
+        width: width as u32,
+        height: h.round() as u32,
+        mapping,
+    }
+}
+
+/// The largest size up to `size` at which `text` fits `width`.
+fn fit_size(text: &str, size: f32, width: f32) -> f32 {
+    let w = text::measure(text, size).width;
+    if w <= width { size } else { size * width / w }
+}
+
+/// Splits a title into lines that fit `width`, at " · " or spaces.
+fn fit_title(title: &str, size: f32, width: f32) -> Vec<String> {
+    let mut lines = Vec::new();
+    let mut line = String::new();
+    for part in title.split(" · ") {
+        let candidate = if line.is_empty() {
+            part.to_string()
+        } else {
+            format!("{line} · {part}")
+        };
+        if text::measure(&candidate, size).width <= width || line.is_empty() {
+            line = candidate;
+        } else {
+            lines.push(std::mem::take(&mut line));
+            line = part.to_string();
+        }
+    }
+    if !line.is_empty() {
+        lines.push(line);
+    }
+    lines
+}
+
+/// The contour levels to draw: explicit ones as given, automatic ones spread over the
+/// colour range, with zero added only on request.
+pub fn levels_for(contours: &Contours, mapping: &Mapping, signed: bool) -> Vec<f64> {
+    match contours {
+        Contours::Levels(l) => l.clone(),
+        Contours::Auto(0) => Vec::new(),
+        Contours::Auto(n) => match *mapping {
+            Mapping::Log { max, decades } => contour::log_levels(max, *n, decades),
+            m => contour::auto_levels(m.max(), *n, signed),
+        },
+    }
+}
+
+#[allow(clippy::too_many_arguments)]
+fn draw_contours(
+    c: &mut Canvas,
+    values: &[f64],
+    nx: usize,
+    ny: usize,
+    (mx, my): (f32, f32),
+    levels: &[f64],
+    style: &Style,
+    k: f32,
+) {
+    let grid = Grid { values, nx, ny };
+    let lw = (1.3 * k).max(1.0);
+    let dash = [6.0 * k, 4.0 * k];
+    let mut all: Vec<(f64, bool)> = levels.iter().map(|l| (*l, false)).collect();
+    if style.zero_contour {
+        all.push((0.0, true));
+    }
+    for (level, zero) in all {
+        for line in contour::trace(&grid, level) {
+            let pts: Vec<(f32, f32)> = line
+                .iter()
+                .map(|(x, y)| (mx + *x as f32 + 0.5, my + *y as f32 + 0.5))
+                .collect();
+            // A pale halo under each line keeps it visible on dark and light colours.
+            let halo = Colour::WHITE.with_alpha(110);
+            c.stroke(
+                &pts,
+                lw * 2.6,
+                halo,
+                if level < 0.0 && !zero {
+                    Some(&dash)
+                } else {
+                    None
+                },
+            );
+            if zero {
+                c.stroke(&pts, lw * 1.4, Colour::BLACK, None);
+            } else if level < 0.0 {
+                c.stroke(&pts, lw, Colour::INK.with_alpha(220), Some(&dash));
+            } else {
+                c.stroke(&pts, lw, Colour::INK.with_alpha(220), None);
+            }
+        }
+    }
+}
+
+fn draw_nuclei(
+    c: &mut Canvas,
+    grid: &PixelGrid,
+    nuclei: &[Nucleus],
+    (mx, my): (f32, f32),
+    numbers: bool,
+    s: &Sizes,
+) {
+    // Far atoms first, so near ones are drawn over them.
+    let mut order: Vec<&Nucleus> = nuclei.iter().collect();
+    order.sort_by_key(|n| n.near);
+    for n in order {
+        let (px, py) = grid.to_pixel(n.u, n.v);
+        let (x, y) = (mx + px as f32 + 0.5, my + py as f32 + 0.5);
+        if px < 0.0 || py < 0.0 || px > grid.nx as f64 - 1.0 || py > grid.ny as f64 - 1.0 {
+            continue;
+        }
+        let (r, size, ink, fill, lw) = if n.near {
+            (
+                11.0 * s.k,
+                15.0 * s.k,
+                Colour::INK,
+                Colour::WHITE,
+                1.6 * s.k,
+            )
+        } else {
+            (
+                8.0 * s.k,
+                11.0 * s.k,
+                Colour::GREY,
+                Colour::WHITE.with_alpha(150),
+                1.0 * s.k,
+            )
+        };
+        c.circle(x, y, r, fill, ink, lw.max(1.0));
+        c.text(&n.symbol, size, x, y, (HAlign::Centre, VAlign::Middle), ink);
+        if numbers {
+            let t = n.number.to_string();
+            let tx = x + 0.8 * r;
+            let ty = y - 0.8 * r;
+            let e = text::measure(&t, 0.8 * size);
+            c.fill_rect(
+                tx - 1.0,
+                ty - e.ascent,
+                e.width + 2.0,
+                e.height(),
+                Colour::WHITE.with_alpha(200),
+            );
+            c.text(
+                &t,
+                0.8 * size,
+                tx,
+                ty,
+                (HAlign::Left, VAlign::Baseline),
+                ink,
+            );
+        }
+    }
+}
