@@ -5,7 +5,7 @@
 
 use std::time::Instant;
 
-use lobecast::basis::{Basis, BasisFunction, BasisSetName, Slater1s};
+use lobecast::basis::{Basis, Shell, SlaterShell};
 use lobecast::chem::{Atom, Molecule, elements::by_symbol};
 use lobecast::field::{Field, FieldSampler};
 use lobecast::grid::plane::{PixelGrid, PlaneSpec, Window};
@@ -42,13 +42,7 @@ fn lattice() -> OrbitalSet {
     let functions = atoms
         .iter()
         .enumerate()
-        .map(|(i, a)| {
-            BasisFunction::Slater1s(Slater1s {
-                atom: i,
-                center: a.position,
-                zeta: 1.2,
-            })
-        })
+        .map(|(i, a)| Shell::Slater(SlaterShell::s1(i, a.position, 1.2).unwrap()))
         .collect();
     let orbitals = (0..4)
         .map(|k| Orbital {
@@ -68,10 +62,10 @@ fn lattice() -> OrbitalSet {
     OrbitalSet {
         molecule: Molecule::new(atoms, 0).unwrap(),
         basis: Basis {
-            name: BasisSetName::Slater1s,
-            functions,
+            name: "slater-1s".into(),
+            shells: functions,
         },
-        overlap: nalgebra::DMatrix::identity(36, 36),
+        overlap: Some(nalgebra::DMatrix::identity(36, 36)),
         orbitals,
         method: "benchmark lattice".into(),
         notes: Vec::new(),
