@@ -2,6 +2,7 @@
 //! Nothing here solves anything: a `Basis` is plain data that integrals, solvers and
 //! grid evaluation read.
 
+pub mod named;
 pub mod slater;
 
 use std::collections::BTreeMap;
