@@ -12,6 +12,7 @@ use super::curve_report as report;
 use crate::basis::{BasisSpec, Shell};
 use crate::chem::{LengthUnit, Molecule};
 use crate::error::{Error, Result};
+use crate::field::buildup;
 use crate::model::{Method, Model};
 use crate::output::{check_not_input, write_bytes};
 use crate::solve::curve::{self, ZetaChoice};
@@ -45,6 +46,11 @@ pub struct CurveArgs {
     /// Write the curve and its refined equilibrium as JSON
     #[arg(long, value_name = "FILE")]
     pub json: Option<PathBuf>,
+    /// Add the build-up columns: electrons gained or lost between the nuclei by the
+    /// bonding and antibonding orbitals (orbitals 1 and 2), and their deformation
+    /// density at the bond midpoint; with --png also FILE-buildup.png
+    #[arg(long)]
+    pub buildup: bool,
     /// Draw the energies as a PNG chart (and, for the slater-1s closed forms, S, J and K
     /// beside it in FILE-integrals.png)
     #[arg(long, value_name = "FILE")]
@@ -88,8 +94,12 @@ pub fn run(args: CurveArgs) -> Result<()> {
         length(args.to, args.units),
         length(args.step, args.units),
     )?;
-    let pngs = args.png.as_ref().map(|p| (p.clone(), integrals_path(p)));
-    for path in [&args.csv, &args.json]
+    let pngs = args
+        .png
+        .as_ref()
+        .map(|p| (p.clone(), suffixed(p, "integrals")));
+    let extra = args.png.as_ref().map(|p| suffixed(p, "buildup"));
+    for path in [&args.csv, &args.json, &extra]
         .into_iter()
         .flatten()
         .chain(pngs.iter().flat_map(|(a, b)| [a, b]))
@@ -104,6 +114,7 @@ pub fn run(args: CurveArgs) -> Result<()> {
         ));
     }
     let chart;
+    let mut buildups = None;
     let doc = if closed_form {
         let Shell::Slater(s) = &model.basis.shells[0] else {
             return Err(Error::internal("slater-1s without a Slater shell"));
@@ -117,6 +128,18 @@ pub fn run(args: CurveArgs) -> Result<()> {
         let points = curve::scan(z, choice, &rs);
         let eq = curve::equilibrium(z, choice, &points);
         chart = Some(charts::two_centre(&model, &points, eq, choice));
+        if args.buildup {
+            let zetas: Vec<f64> = points.iter().map(|p| p.zeta).collect();
+            buildups = Some(buildup::along_curve(molecule, &rs, |r, m| {
+                let i = rs
+                    .iter()
+                    .position(|x| *x == r)
+                    .expect("a scanned separation");
+                let mut spec = spec.clone();
+                spec.zeta = [(a.element.symbol.to_string(), zetas[i])].into();
+                spec.build(m)
+            })?);
+        }
         report::TwoCentre {
             model: &model,
             z,
@@ -132,12 +155,19 @@ pub fn run(args: CurveArgs) -> Result<()> {
         let points = curve::scan_states(molecule, spec, &rs, args.states)?;
         let eq = curve::states_equilibrium(molecule, spec, &points)?;
         chart = charts::states(&model, &points, eq);
+        if args.buildup {
+            buildups = Some(buildup::along_curve(molecule, &rs, |_, m| spec.build(m))?);
+        }
         report::States {
             model: &model,
             points,
             eq,
         }
         .into_document()
+    };
+    let doc = match &buildups {
+        Some(b) => report::with_buildup(doc, &rs, b),
+        None => doc,
     };
     print_out(&doc.table)?;
     say!("{}", doc.equilibrium_line);
@@ -169,12 +199,21 @@ pub fn run(args: CurveArgs) -> Result<()> {
             )?;
             eprintln!("wrote {}", integrals_png.display());
         }
+        if let Some(b) = &buildups {
+            let path = suffixed(energy_png, "buildup");
+            write_bytes(
+                &path,
+                &model.inputs,
+                &charts::buildup(&model, &rs, b)?.encode_png(),
+            )?;
+            eprintln!("wrote {}", path.display());
+        }
     }
     Ok(())
 }
 
-/// `curve.png` → `curve-integrals.png`: where the S, J, K chart goes.
-pub fn integrals_path(png: &std::path::Path) -> PathBuf {
+/// `curve.png` → `curve-integrals.png`: where the companion charts go.
+pub fn suffixed(png: &std::path::Path, what: &str) -> PathBuf {
     let stem = png
         .file_stem()
         .map(|s| s.to_string_lossy().into_owned())
@@ -183,5 +222,5 @@ pub fn integrals_path(png: &std::path::Path) -> PathBuf {
         .extension()
         .map(|e| format!(".{}", e.to_string_lossy()))
         .unwrap_or_else(|| ".png".into());
-    png.with_file_name(format!("{stem}-integrals{ext}"))
+    png.with_file_name(format!("{stem}-{what}{ext}"))
 }

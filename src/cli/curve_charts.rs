@@ -70,3 +70,32 @@ pub fn states(model: &Model, points: &[StatesPoint], eq: Option<(f64, f64)>) -> 
         width: 1000,
     })
 }
+
+/// The build-up chart: electrons gained or lost between the nuclei against R.
+pub fn buildup(
+    model: &Model,
+    rs: &[f64],
+    b: &[crate::field::buildup::Buildup],
+) -> crate::Result<crate::render::canvas::Canvas> {
+    use crate::plot::profile::{Profile, Series, draw};
+    let bonding: Vec<f64> = b.iter().map(|x| x.between[0]).collect();
+    let antibonding: Vec<f64> = b.iter().map(|x| x.between[1]).collect();
+    let formula = crate::render::text::formula_markup(&model.molecule.formula_with_charge());
+    draw(&Profile {
+        title: format!("{formula}: electrons gained between the nuclei"),
+        s: rs,
+        series: vec![
+            Series { label: "bonding orbital (1)".into(), values: &bonding },
+            Series { label: "antibonding orbital (2)".into(), values: &antibonding },
+        ],
+        y_label: "electrons gained between the nuclei, ∫Δρ / e".into(),
+        x_label: "R / bohr".into(),
+        nuclei: Vec::new(),
+        footnotes: vec![
+            "Δρ = |ψ|^{2} − Σ_{μ} q_{μ} φ_{μ}^{2}: the orbital's density minus its own atomic pieces (Mulliken gross populations q_{μ}); it integrates to zero over all space.".into(),
+            "The slab lies between the two planes through the nuclei perpendicular to the bond.".into(),
+        ],
+        width: 1000,
+        background: crate::render::canvas::Colour::WHITE,
+    })
+}

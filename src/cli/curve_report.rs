@@ -286,3 +286,65 @@ impl States<'_> {
         }
     }
 }
+
+/// Appends the build-up columns to the table, the CSV and the JSON points.
+pub fn with_buildup(
+    mut doc: Document,
+    rs: &[f64],
+    b: &[crate::field::buildup::Buildup],
+) -> Document {
+    let mut table = String::new();
+    for (i, line) in doc.table.lines().enumerate() {
+        table += line;
+        match i {
+            0 => {}
+            1 => {
+                table += &format!(
+                    " {:>11} {:>11} {:>11} {:>11}",
+                    "gain+/e", "gain-/e", "mid+/bohr-3", "mid-/bohr-3"
+                )
+            }
+            _ => {
+                let x = &b[i - 2];
+                table += &format!(
+                    " {:11.6} {:11.6} {:11.6} {:11.6}",
+                    x.between[0], x.between[1], x.midpoint[0], x.midpoint[1]
+                );
+            }
+        }
+        table += "\n";
+    }
+    let mut csv = String::new();
+    let mut row = 0;
+    for line in doc.csv.lines() {
+        csv += line;
+        if line.starts_with("r_bohr") {
+            csv += ",between_bonding,between_antibonding,midpoint_bonding,midpoint_antibonding";
+        } else if !line.starts_with('#') {
+            let x = &b[row];
+            csv += &format!(
+                ",{:.10e},{:.10e},{:.10e},{:.10e}",
+                x.between[0], x.between[1], x.midpoint[0], x.midpoint[1]
+            );
+            row += 1;
+        } else if row == 0 && line.starts_with("# caution") {
+            csv += "\n# between_*: electrons gained (>0) or lost (<0) between the planes through the nuclei perpendicular to the bond, i.e. the slab integral of the orbital deformation density of orbital 1 (bonding) or 2 (antibonding); midpoint_*: that density at the bond midpoint, e/bohr^3";
+        }
+        csv += "\n";
+    }
+    if let Ok(mut json) = serde_json::from_str::<serde_json::Value>(&doc.json) {
+        if let Some(points) = json.get_mut("points").and_then(|p| p.as_array_mut()) {
+            for (p, x) in points.iter_mut().zip(b) {
+                p["between_bonding"] = x.between[0].into();
+                p["between_antibonding"] = x.between[1].into();
+                p["midpoint_bonding"] = x.midpoint[0].into();
+                p["midpoint_antibonding"] = x.midpoint[1].into();
+            }
+        }
+        doc.json = serde_json::to_string_pretty(&json).expect("JSON values serialise") + "\n";
+    }
+    debug_assert_eq!(rs.len(), b.len());
+    doc.table = table;
+    doc.csv = csv;
+    doc
+}

@@ -22,7 +22,7 @@ pub const ON_LINE_BOHR: f64 = 0.05;
 
 #[derive(Debug, Args)]
 pub struct ProfileArgs {
-    /// Model file (TOML)
+    /// Model file (.toml), orbital file (.json) or cube file (.cube, .cube.gz)
     pub source: PathBuf,
     /// Field to follow; repeat for several (one column and one line each)
     #[arg(long = "field", required = true, value_name = "FIELD")]

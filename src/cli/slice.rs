@@ -29,7 +29,7 @@ pub enum Background {
 
 #[derive(Debug, Args)]
 pub struct SliceArgs {
-    /// Model file (TOML)
+    /// Model file (.toml), orbital file (.json) or cube file (.cube, .cube.gz)
     pub source: PathBuf,
     /// Field to draw: orbital:N, orbital-density:N, orbital-deformation:N (N = number,
     /// homo, lumo, …) or density

@@ -1,6 +1,7 @@
 //! What to evaluate: the `Field` enum, parsed from `orbital:N`, `orbital-density:N`,
 //! `orbital-deformation:N` and `density`, and its batched evaluation at points.
 
+pub mod buildup;
 mod eval;
 
 pub use eval::FieldSampler;

@@ -4,6 +4,7 @@
 pub mod line;
 pub mod plane;
 mod sampler;
+pub mod slab_rule;
 
 pub use sampler::{Slab, sample_all, stream_slabs};
 
