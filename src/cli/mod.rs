@@ -6,6 +6,7 @@ mod common;
 mod curve;
 mod curve_charts;
 mod curve_report;
+pub mod demo;
 mod inspect;
 mod profile;
 mod slice;
@@ -34,6 +35,8 @@ pub struct Cli {
 
 #[derive(Debug, Subcommand)]
 enum Command {
+    /// Write the built-in gallery: energy curves, orbital and deformation figures, cube files
+    Demo(demo::DemoArgs),
     /// Solve a model and print its orbital energies, occupations and make-up
     Solve(solve::SolveArgs),
     /// Scan the separation of a two-centre one-electron model: S, J, K and both energies
@@ -58,6 +61,7 @@ pub fn main() -> i32 {
         Err(e) => return clap_exit(e),
     };
     let result = match cli.command {
+        Command::Demo(a) => demo::run(a),
         Command::Solve(a) => solve::run(a),
         Command::Curve(a) => curve::run(a),
         Command::Volume(a) => volume::run(a),

@@ -6,7 +6,8 @@
 //! panels graded toward both planes, where the nuclear cusps sit), the distance ρ from
 //! the axis mapped from t ∈ [0, 1) by ρ = L t/(1 − t) (Gauss–Legendre on panels graded
 //! toward the axis), and a uniform rule in the angle, exact for fields symmetric
-//! about the axis and spectrally accurate for smooth ones.
+//! about the axis and spectrally accurate for smooth ones (8 angles: exact for the first three
+//! harmonics of the angle).
 
 use std::f64::consts::PI;
 
@@ -82,7 +83,7 @@ pub fn between_planes(a: [f64; 3], b: [f64; 3], length: f64) -> Vec<([f64; 3], f
         e[2] * e1[0] - e[0] * e1[2],
         e[0] * e1[1] - e[1] * e1[0],
     ];
-    let rule = gauss_legendre(16);
+    let rule = gauss_legendre(12);
     let us = panels(
         &graded_both(6).iter().map(|t| t * r).collect::<Vec<_>>(),
         &rule,
@@ -93,7 +94,7 @@ pub fn between_planes(a: [f64; 3], b: [f64; 3], length: f64) -> Vec<([f64; 3], f
     }
     t_edges.extend([0.75, 0.9, 0.97, 0.995, 1.0]);
     let ts = panels(&t_edges, &rule);
-    let nphi = 16;
+    let nphi = 8;
     let mut out = Vec::with_capacity(us.len() * ts.len() * nphi);
     for &(u, wu) in &us {
         for &(t, wt) in &ts {

@@ -1,0 +1,237 @@
+//! `lobecast demo`: the built-in gallery. Each step is an ordinary lobecast command,
+//! run as a child process of this same binary, so that every file comes with the
+//! exact command that makes it on its own (listed in GALLERY.md).
+
+use std::path::{Path, PathBuf};
+use std::process::Command;
+use std::time::Instant;
+
+use clap::Args;
+
+use super::common::say;
+use crate::error::{Error, Result};
+use crate::output::write_bytes;
+
+/// The scenario's built-in model: the one-electron hydrogen molecular ion.
+const H2_CATION: &str = include_str!("../../examples/h2-cation.toml");
+
+#[derive(Debug, Args)]
+pub struct DemoArgs {
+    /// Folder for the gallery (created if missing)
+    #[arg(long, default_value = "outputs")]
+    pub out: PathBuf,
+    /// A reduced, faster gallery (coarser scans and grids, smaller figures)
+    #[arg(long)]
+    pub quick: bool,
+}
+
+/// One step: what it is, the files it writes with captions, and its arguments.
+struct Step {
+    title: &'static str,
+    files: Vec<(String, String)>,
+    args: Vec<String>,
+}
+
+fn step(title: &'static str, files: &[(&str, &str)], args: &str) -> Step {
+    Step {
+        title,
+        files: files
+            .iter()
+            .map(|(f, c)| (f.to_string(), c.to_string()))
+            .collect(),
+        args: args.split_whitespace().map(String::from).collect(),
+    }
+}
+
+/// The model at separation `r` (bohr), written into the gallery's models folder.
+fn h2_model(r: f64) -> String {
+    H2_CATION
+        .replace(
+            "position = [0.0, 0.0, -1.0]",
+            &format!("position = [0.0, 0.0, {}]", -0.5 * r),
+        )
+        .replace(
+            "position = [0.0, 0.0, 1.0]",
+            &format!("position = [0.0, 0.0, {}]", 0.5 * r),
+        )
+}
+
+fn steps(quick: bool) -> Vec<Step> {
+    let (dr, size, h) = if quick {
+        ("0.25", "500", "0.3")
+    } else {
+        ("0.05", "1000", "0.15")
+    };
+    let mut s = vec![
+        step(
+            "energy curve and build-up, ζ = 1",
+            &[
+                (
+                    "h2plus-curve.csv",
+                    "S, J, K, E₊, E₋ and the build-up columns against R (ζ = 1)",
+                ),
+                (
+                    "h2plus-curve.json",
+                    "the same curve with its refined equilibrium and binding energy",
+                ),
+                (
+                    "h2plus-curve.png",
+                    "bonding and antibonding energies against R, equilibrium marked, hartree and eV",
+                ),
+                (
+                    "h2plus-curve-integrals.png",
+                    "overlap S, Coulomb J and exchange K against R",
+                ),
+                (
+                    "h2plus-curve-buildup.png",
+                    "electrons gained between the nuclei by the bonding orbital and lost by the antibonding one, against R",
+                ),
+            ],
+            &format!(
+                "curve models/h2plus-r2.5.toml --units bohr --from 0.6 --to 8 --step {dr} --buildup --csv h2plus-curve.csv --json h2plus-curve.json --png h2plus-curve.png"
+            ),
+        ),
+        step(
+            "energy curve, optimised ζ",
+            &[
+                (
+                    "h2plus-curve-zeta.csv",
+                    "the curve with the 1s exponent optimised at every R (zeta column)",
+                ),
+                (
+                    "h2plus-curve-zeta.png",
+                    "energies with optimised ζ: a deeper well at a shorter bond",
+                ),
+                (
+                    "h2plus-curve-zeta-integrals.png",
+                    "S, J and K with optimised ζ",
+                ),
+            ],
+            &format!(
+                "curve models/h2plus-r2.5.toml --units bohr --from 0.6 --to 8 --step {dr} --optimize-zeta --csv h2plus-curve-zeta.csv --png h2plus-curve-zeta.png"
+            ),
+        ),
+    ];
+    for (r, name, what) in [
+        ("1.2", "r1.2", "compressed"),
+        ("2.5", "r2.5", "near the equilibrium"),
+        ("5.0", "r5.0", "stretched"),
+    ] {
+        s.push(Step {
+            title: "orbital slices",
+            files: vec![(format!("h2plus-{name}-orbitals.png"), format!("bonding and antibonding orbitals at R = {r} bohr ({what}), one colour scale"))],
+            args: format!("slice models/h2plus-{name}.toml --panels orbital:1,orbital:2 --shared-scale --plane xz --zero-contour --size {size} --png h2plus-{name}-orbitals.png")
+                .split_whitespace()
+                .map(String::from)
+                .collect(),
+        });
+        s.push(Step {
+            title: "deformation panels",
+            files: vec![(format!("h2plus-{name}-deformation.png"), format!("orbital deformation densities of both orbitals at R = {r} bohr ({what}), one colour scale"))],
+            args: format!("slice models/h2plus-{name}.toml --panels orbital-deformation:1,orbital-deformation:2 --shared-scale --plane xz --extent 3 --size {size} --png h2plus-{name}-deformation.png")
+                .split_whitespace()
+                .map(String::from)
+                .collect(),
+        });
+    }
+    s.push(step(
+        "cube volumes near the equilibrium",
+        &[("h2plus-r2.5.cube", "orbitals 1 and 2 and their deformation densities at R = 2.5 bohr, for a 3-D viewer (bohr)")],
+        &format!("volume models/h2plus-r2.5.toml --field orbital:1 --field orbital:2 --field orbital-deformation:1 --field orbital-deformation:2 --spacing {h} --units bohr --out h2plus-r2.5.cube"),
+    ));
+    s
+}
+
+pub fn run(args: DemoArgs) -> Result<()> {
+    let started = Instant::now();
+    let out = &args.out;
+    std::fs::create_dir_all(out.join("models"))
+        .map_err(|e| Error::input(format!("cannot create the folder {}: {e}", out.display())))?;
+    for r in [1.2, 2.5, 5.0] {
+        write_bytes(
+            &out.join(format!("models/h2plus-r{r:.1}.toml")),
+            &[],
+            h2_model(r).as_bytes(),
+        )?;
+    }
+    let exe = std::env::current_exe()
+        .map_err(|e| Error::internal(format!("cannot find the lobecast binary: {e}")))?;
+    let steps = steps(args.quick);
+    say!(
+        "lobecast demo: a gallery for the Larkspur Hill teaching lab's report on one-electron bonds, in {}{}",
+        out.display(),
+        if args.quick { " (quick)" } else { "" }
+    );
+    let mut cube_seconds = 0.0;
+    for (i, s) in steps.iter().enumerate() {
+        let t = Instant::now();
+        let result = Command::new(&exe).args(&s.args).current_dir(out).output();
+        let seconds = t.elapsed().as_secs_f64();
+        let output =
+            result.map_err(|e| Error::internal(format!("cannot run step {}: {e}", i + 1)))?;
+        if !output.status.success() {
+            let err = String::from_utf8_lossy(&output.stderr);
+            return Err(Error::internal(format!(
+                "step {} ({}) failed: {}",
+                i + 1,
+                s.title,
+                err.trim()
+            )));
+        }
+        if s.args[0] == "volume" {
+            cube_seconds += seconds;
+        }
+        let names: Vec<&str> = s.files.iter().map(|(f, _)| f.as_str()).collect();
+        say!(
+            "[{:>2}/{}] {seconds:6.2} s  {}: {}",
+            i + 1,
+            steps.len(),
+            s.title,
+            names.join(", ")
+        );
+    }
+    write_bytes(&out.join("GALLERY.md"), &[], gallery(&steps).as_bytes())?;
+    let total = started.elapsed().as_secs_f64();
+    say!(
+        "wrote {} files and GALLERY.md in {total:.1} s ({:.0} % of it writing cube files); open GALLERY.md for what each shows",
+        steps.iter().map(|s| s.files.len()).sum::<usize>(),
+        100.0 * cube_seconds / total
+    );
+    Ok(())
+}
+
+fn gallery(steps: &[Step]) -> String {
+    let mut g = String::from(
+        "# Gallery\n\n\
+         Made by `lobecast demo` for the Larkspur Hill teaching lab's report on bonding in the one-electron \
+         hydrogen molecular ion: how a single electron shared by two protons piles up between them in the \
+         bonding orbital and is pushed out by a nodal plane in the antibonding one, and how that changes with \
+         the separation R. Run each command from this folder to make its file on its own.\n\n\
+         The model is a minimal basis (one 1s Slater function per nucleus): its pictures are qualitatively \
+         right, but its energies are variational upper bounds and its bond is too weak — use the numbers for \
+         trends, not as quantitative results.\n\n\
+         | file | what it shows | command |\n| --- | --- | --- |\n",
+    );
+    for s in steps {
+        for (f, caption) in &s.files {
+            g += &format!("| `{f}` | {caption} | `lobecast {}` |\n", s.args.join(" "));
+        }
+    }
+    g
+}
+
+/// Every file a gallery in `dir` lists (for tests and for users checking a run).
+pub fn listed_files(dir: &Path) -> Result<Vec<PathBuf>> {
+    let text = std::fs::read_to_string(dir.join("GALLERY.md")).map_err(|e| {
+        Error::input(format!(
+            "cannot read {}: {e}",
+            dir.join("GALLERY.md").display()
+        ))
+    })?;
+    Ok(text
+        .lines()
+        .filter_map(|l| l.strip_prefix("| `"))
+        .filter_map(|l| l.split_once('`'))
+        .map(|(f, _)| dir.join(f))
+        .collect())
+}
