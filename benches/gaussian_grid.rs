@@ -7,7 +7,7 @@ use std::path::Path;
 use std::time::Instant;
 
 use lobecast::field::{Field, FieldSampler};
-use lobecast::grid::{GridBox, Resolution, stream_slabs};
+use lobecast::grid::{GridBox, stream_slabs};
 use lobecast::solve::{Orbital, OrbitalSet};
 
 /// Benzene, D6h, r(C–C) = 1.3915 Å and r(C–H) = 1.0800 Å (semi-experimental
@@ -80,7 +80,13 @@ fn main() {
         notes: vec![],
     };
     let sampler = FieldSampler::new(&set, &[Field::parse("orbital:1").unwrap()]).unwrap();
-    let grid = GridBox::around(&set.molecule, 4.0, Resolution::Points(128)).unwrap();
+    // A 128³ box, 16 bohr on a side, around the ring.
+    let h = 16.0 / 127.0;
+    let grid = GridBox {
+        origin: [-8.0; 3],
+        axes: [[h, 0.0, 0.0], [0.0, h, 0.0], [0.0, 0.0, h]],
+        counts: [128; 3],
+    };
     let n = grid.point_count() as f64;
     println!(
         "benzene STO-3G: {nbf} functions, grid {:?} = {n} points",
