@@ -63,5 +63,6 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         orbitals,
         method: format!("one-electron, {}", basis.name),
         notes,
+        reference: None,
     })
 }

@@ -201,6 +201,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         orbitals,
         method: doc.method.unwrap_or_else(|| format!("orbital file {name}")),
         notes,
+        reference: None,
     })
 }
 
