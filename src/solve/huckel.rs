@@ -103,3 +103,22 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
         reference: Some(vb.reference),
     })
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The weighted form reduces to the plain one for equal H_ii (Δ = 0) and, for
+    /// H_ii = −10, H_jj = −20 (Δ = 1/3), K' = K + 1/9 + (1/81)(1 − K)
+    /// (Ammeter et al. 1978, from memory; arithmetic here).
+    #[test]
+    fn weighted_off_diagonal() {
+        let plain = off_diagonal(-10.0, -10.0, 0.3, 1.75, OffDiagonal::Plain);
+        assert!((plain - 1.75 * 0.3 * -10.0).abs() < 1e-15);
+        let w = off_diagonal(-10.0, -10.0, 0.3, 1.75, OffDiagonal::Weighted);
+        assert!((w - plain).abs() < 1e-15);
+        let k = 1.75 + 1.0 / 9.0 + (1.0 - 1.75) / 81.0;
+        let w = off_diagonal(-10.0, -20.0, 0.3, 1.75, OffDiagonal::Weighted);
+        assert!((w - k * 0.3 * -15.0).abs() < 1e-13, "{w}");
+    }
+}
