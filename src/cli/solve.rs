@@ -26,7 +26,9 @@ pub fn run(args: SolveArgs) -> Result<()> {
         crate::output::check_not_input(path, &model.inputs)?;
     }
     let set = orbitals_for(&model)?;
-    if set.reference.is_some() {
+    // Extended-Hückel sets (solved now or read back from an orbital file) have no
+    // total energy to speak of.
+    if set.reference.is_some() || set.method.starts_with("extended Hückel") {
         let electrons: f64 = set.orbitals.iter().map(|o| o.occupation).sum();
         say!(
             "lobecast solve: {} from {}, {}, {electrons} valence electron(s); orbital energies only (no total energy)",
