@@ -228,3 +228,28 @@ fn element_without_parameters_is_named() {
             .contains("[orbitals.parameters.Ne]")
     );
 }
+
+/// The orbital file keeps what the valence-only set needs: reading it back gives the
+/// same charge, the same overlap (recomputed) and the same deformation density at
+/// points (to 1e-12; the file prints shortest round-trip floats, common practice).
+#[test]
+fn orbital_file_round_trip_keeps_the_reference() {
+    use lobecast::solve::orbital_file::{parse, to_json};
+    let set = eht(&molecule(&example("hcn.xyz"), 1));
+    let back = parse(&to_json(&set), "t.json").unwrap();
+    assert_eq!(back.molecule.charge, 1);
+    assert_eq!(back.reference, set.reference);
+    let pts = [[0.3, -0.2, 0.5], [0.0, 0.4, 1.9], [1.0, 1.0, -1.0]];
+    let f = [Field::Deformation];
+    let (mut a, mut b) = ([0.0; 3], [0.0; 3]);
+    FieldSampler::new(&set, &f).unwrap().evaluate(&pts, &mut a);
+    FieldSampler::new(&back, &f).unwrap().evaluate(&pts, &mut b);
+    for (x, y) in a.iter().zip(&b) {
+        assert!((x - y).abs() < 1e-12, "{x} vs {y}");
+    }
+    let q = back.mulliken_charges().unwrap();
+    assert!(
+        (q.iter().sum::<f64>() - 1.0).abs() < 1e-10,
+        "charges sum to {q:?}"
+    );
+}
