@@ -253,3 +253,18 @@ fn orbital_file_round_trip_keeps_the_reference() {
         "charges sum to {q:?}"
     );
 }
+
+/// The benzene cation has 29 valence electrons: the degenerate HOMO pair shares
+/// three evenly (1.5 each, Aufbau with degenerate sharing; common practice), and the
+/// notes say so.
+#[test]
+fn degenerate_levels_share_electrons() {
+    let set = eht(&molecule(&benzene(), 1));
+    assert_eq!(set.orbitals[13].occupation, 1.5);
+    assert_eq!(set.orbitals[14].occupation, 1.5);
+    assert!(
+        set.notes.iter().any(|n| n.contains("share")),
+        "{:?}",
+        set.notes
+    );
+}
