@@ -68,6 +68,7 @@ fn lattice() -> OrbitalSet {
         overlap: Some(nalgebra::DMatrix::identity(36, 36)),
         orbitals,
         method: "benchmark lattice".into(),
+        reference: None,
         notes: Vec::new(),
     }
 }

@@ -77,6 +77,7 @@ fn main() {
             coefficients: (0..nbf).map(|i| 0.1 + 0.01 * i as f64).collect(),
         }],
         method: "bench".into(),
+        reference: None,
         notes: vec![],
     };
     let sampler = FieldSampler::new(&set, &[Field::parse("orbital:1").unwrap()]).unwrap();

@@ -11,9 +11,14 @@
 //! set = "slater-1s"
 //! zeta = { H = 1.0 }        # optional, per element; default ζ = Z
 //! [orbitals]
-//! method = "one-electron"
+//! method = "one-electron"   # or "extended-huckel" (no [basis]: it brings its own)
+//! # k = 1.75, off-diagonal = "weighted", parameters.C = { p = { energy = -11.0 } }
 //! ```
+//!
+//! An XYZ file can stand in for a model file when the method comes from the command
+//! line (`load_with`).
 
+use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 
 use serde::Deserialize;
@@ -23,6 +28,7 @@ use crate::chem::xyz::parse_xyz;
 use crate::chem::{Atom, LengthUnit, Molecule, elements};
 use crate::error::{Error, Result};
 use crate::solve::OrbitalSet;
+use crate::solve::huckel_params::{ElementOverride, HuckelOptions, OffDiagonal, valence_basis};
 
 #[derive(Debug, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -58,6 +64,13 @@ struct OrbitalsSection {
     method: Method,
     /// The orbital file, for `method = "file"`; relative to the model file.
     path: Option<String>,
+    /// Extended Hückel: the Wolfsberg–Helmholz constant.
+    k: Option<f64>,
+    /// Extended Hückel: "plain" or "weighted".
+    #[serde(rename = "off-diagonal")]
+    off_diagonal: Option<OffDiagonal>,
+    /// Extended Hückel: per-element overrides of the exponents and H_ii (eV).
+    parameters: Option<BTreeMap<String, ElementOverride>>,
 }
 
 /// How the orbitals are obtained.
@@ -69,6 +82,27 @@ pub enum Method {
     OneElectron,
     /// Take the orbitals from an orbital file as they are.
     File,
+    /// Extended Hückel in a valence Slater basis (semi-empirical, qualitative).
+    ExtendedHuckel,
+}
+
+impl Method {
+    /// Reads a method name as the command line gives it.
+    pub fn parse(text: &str) -> Result<Self> {
+        match text.trim().to_ascii_lowercase().as_str() {
+            "extended-huckel" | "extended-hückel" => Ok(Method::ExtendedHuckel),
+            "one-electron" => Ok(Method::OneElectron),
+            _ => Err(Error::input(format!("unknown method {text:?}"))
+                .with_hint("methods for an XYZ file: extended-huckel, one-electron")),
+        }
+    }
+}
+
+/// What the command line adds when the model is a bare XYZ file.
+#[derive(Debug, Clone, Default)]
+pub struct LoadOptions {
+    pub method: Option<Method>,
+    pub charge: Option<i32>,
 }
 
 /// A read and checked model.
@@ -83,6 +117,8 @@ pub struct Model {
     pub method: Method,
     /// The orbitals, when they were read from a file rather than to be solved.
     pub orbitals: Option<OrbitalSet>,
+    /// Extended-Hückel choices, for that method.
+    pub huckel: Option<HuckelOptions>,
     /// Every file the model was read from (the model itself, an XYZ or orbital
     /// file), so that no output is ever written over one of them.
     pub inputs: Vec<PathBuf>,
@@ -90,6 +126,25 @@ pub struct Model {
 
 /// Reads a model file (TOML) or, for a `.json` path, an orbital file directly.
 pub fn load(path: &Path) -> Result<Model> {
+    load_with(path, &LoadOptions::default())
+}
+
+/// Like `load`, and an `.xyz` path becomes a model with the method and charge of
+/// `options` (which only an XYZ file takes: a model file says them itself).
+pub fn load_with(path: &Path, options: &LoadOptions) -> Result<Model> {
+    let is_xyz = path
+        .extension()
+        .is_some_and(|e| e.eq_ignore_ascii_case("xyz"));
+    if is_xyz {
+        return from_xyz(path, options);
+    }
+    if options.method.is_some() || options.charge.is_some() {
+        return Err(Error::input(format!(
+            "--method and --charge apply to an XYZ file; {} says them itself",
+            path.display()
+        ))
+        .with_hint("set [orbitals] method and [molecule] charge in the model file"));
+    }
     if path
         .extension()
         .is_some_and(|e| e.eq_ignore_ascii_case("json"))
@@ -110,8 +165,46 @@ fn from_orbitals(file: &Path, inputs: Vec<PathBuf>) -> Result<Model> {
         basis: set.basis.clone(),
         method: Method::File,
         orbitals: Some(set),
+        huckel: None,
         inputs,
     })
+}
+
+fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
+    let name = path.display().to_string();
+    let method = options.method.ok_or_else(|| {
+        Error::input(format!(
+            "{name} is an XYZ file: say how to get its orbitals"
+        ))
+        .with_hint("add --method extended-huckel (and --charge Q for an ion)")
+    })?;
+    let text = std::fs::read_to_string(path)
+        .map_err(|e| Error::input(format!("cannot read xyz file {name}: {e}")))?;
+    let frame = parse_xyz(&text, &name, LengthUnit::Angstrom)?;
+    if frame.more_frames {
+        eprintln!("note: {name} holds several frames; using the first");
+    }
+    let molecule = Molecule::new(frame.atoms, options.charge.unwrap_or(0))
+        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    match method {
+        Method::ExtendedHuckel => {
+            let huckel = HuckelOptions::default();
+            let basis = valence_basis(&molecule, &huckel)?.basis;
+            Ok(Model {
+                path: path.to_path_buf(),
+                molecule,
+                spec: None,
+                basis,
+                method,
+                orbitals: None,
+                huckel: Some(huckel),
+                inputs: vec![path.to_path_buf()],
+            })
+        }
+        _ => Err(Error::input(format!(
+            "{name}: an XYZ file needs --method extended-huckel (other methods need a basis: use a model file)"
+        ))),
+    }
 }
 
 /// Parses model text; `path` names the file in errors and anchors relative paths.
@@ -138,12 +231,43 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
             "{name}: [orbitals] path is only used with method = \"file\""
         )));
     }
+    let huckel_keys = file.orbitals.k.is_some()
+        || file.orbitals.off_diagonal.is_some()
+        || file.orbitals.parameters.is_some();
+    let huckel = if file.orbitals.method == Method::ExtendedHuckel {
+        if file.basis.is_some() {
+            return Err(Error::input(format!(
+                "{name}: extended Hückel brings its own valence basis; remove [basis]"
+            ))
+            .with_hint("change exponents with [orbitals.parameters.El] s/p = { zeta = … }"));
+        }
+        let o = HuckelOptions {
+            k: file.orbitals.k.unwrap_or(HuckelOptions::default().k),
+            off_diagonal: file.orbitals.off_diagonal.unwrap_or_default(),
+            parameters: file.orbitals.parameters.clone().unwrap_or_default(),
+        };
+        o.check()
+            .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+        Some(o)
+    } else if huckel_keys {
+        return Err(Error::input(format!(
+            "{name}: [orbitals] k, off-diagonal and parameters are only used with method = \"extended-huckel\""
+        )));
+    } else {
+        None
+    };
     let m = file
         .molecule
         .ok_or_else(|| Error::input(format!("{name}: the model needs a [molecule] section")))?;
-    let spec = file
-        .basis
-        .ok_or_else(|| Error::input(format!("{name}: the model needs a [basis] section")))?;
+    let spec = match (&huckel, file.basis) {
+        (Some(_), _) => None,
+        (None, Some(spec)) => Some(spec),
+        (None, None) => {
+            return Err(Error::input(format!(
+                "{name}: the model needs a [basis] section"
+            )));
+        }
+    };
     let mut inputs = vec![path.to_path_buf()];
     let atoms = match (m.atoms, m.xyz) {
         (Some(_), Some(_)) => {
@@ -188,14 +312,19 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
     };
     let molecule = Molecule::new(atoms, m.charge)
         .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
-    let basis = spec.build(&molecule)?;
+    let basis = match (&spec, &huckel) {
+        (Some(spec), _) => spec.build(&molecule)?,
+        (None, Some(h)) => valence_basis(&molecule, h)?.basis,
+        (None, None) => return Err(Error::internal("a model without a basis")),
+    };
     Ok(Model {
         path: path.to_path_buf(),
         molecule,
-        spec: Some(spec),
+        spec,
         basis,
         method: file.orbitals.method,
         orbitals: None,
+        huckel,
         inputs,
     })
 }
@@ -249,5 +378,39 @@ mod tests {
         let m = parse(&text, Path::new("m.toml")).unwrap();
         // 1 Å in bohr with the CODATA 2018 Bohr radius.
         assert!((m.molecule.atoms[1].position[2] - 1.0 / 0.529_177_210_903).abs() < 1e-12);
+    }
+}
+
+#[cfg(test)]
+mod huckel_tests {
+    use super::*;
+
+    const EHT: &str = "[molecule]\natoms = [{ element = \"H\", position = [0, 0, 0] }, { element = \"Ne\", position = [0, 0, 1.5] }]\n[orbitals]\nmethod = \"extended-huckel\"\nk = 2.0\noff-diagonal = \"weighted\"\nparameters.ne = { s = { zeta = 2.9, energy = -48.5 }, p = { zeta = 2.9, energy = -21.6 } }\nparameters.H = { s = { energy = -13.0 } }\n";
+
+    /// Overrides supply an element without built-in parameters (the numbers here
+    /// are arbitrary test inputs, not reference values) and change H's H_ii.
+    #[test]
+    fn extended_huckel_with_overrides() {
+        let m = parse(EHT, Path::new("m.toml")).unwrap();
+        assert_eq!(m.method, Method::ExtendedHuckel);
+        assert_eq!(m.basis.len(), 5);
+        let h = m.huckel.as_ref().unwrap();
+        assert_eq!(h.k, 2.0);
+        assert_eq!(h.off_diagonal, OffDiagonal::Weighted);
+        let set = crate::solve::orbitals_for(&m).unwrap();
+        let occ: f64 = set.orbitals.iter().map(|o| o.occupation).sum();
+        assert_eq!(occ, 9.0);
+        let e = parse(
+            &EHT.replace("[orbitals]", "[basis]\nset = \"sto-3g\"\n[orbitals]"),
+            Path::new("m.toml"),
+        )
+        .unwrap_err();
+        assert!(e.message.contains("remove [basis]"), "{}", e.message);
+        let e = parse(
+            &EHT.replace("parameters.ne", "parameters.Xx"),
+            Path::new("m.toml"),
+        )
+        .unwrap_err();
+        assert!(e.message.contains("Xx"), "{}", e.message);
     }
 }

@@ -330,3 +330,103 @@ fn multi_field_cube_layout() {
         assert!((p[2] - p[0] * p[0]).abs() <= 2e-5 * p[2].abs() + 1e-300);
     }
 }
+
+/// XYZ input with extended Hückel: bad files, missing parameters and misuse of the
+/// flags each give one `error:` line and exit 2 with no output; a good run writes
+/// the orbital table with the caution, and a cube of the frontier and deformation.
+#[test]
+fn xyz_with_extended_huckel() {
+    let d = tempfile::tempdir().unwrap();
+    let water = "3\nwater\nO 0 0 0\nH 0.757 0 0.586\nH -0.757 0 0.586\n";
+    model(d.path(), "w.xyz", water);
+    model(d.path(), "bad.xyz", "2\n\nO 0 0 0\nQq 0 0 1\n");
+    model(d.path(), "ne.xyz", "2\n\nNe 0 0 0\nH 0 0 1\n");
+    model(d.path(), "m.toml", H2);
+    let keep = ["bad.xyz", "m.toml", "ne.xyz", "w.xyz"];
+    let eht = ["--method", "extended-huckel"];
+    let cases: &[(&[&str], &str)] = &[
+        (&["solve", "bad.xyz", eht[0], eht[1]], "line 4"),
+        (&["solve", "ne.xyz", eht[0], eht[1]], "no parameters for Ne"),
+        (&["solve", "w.xyz"], "--method"),
+        (&["solve", "w.xyz", "--method", "guess"], "unknown method"),
+        (&["solve", "m.toml", eht[0], eht[1]], "XYZ file"),
+        (
+            &[
+                "volume", "ne.xyz", eht[0], eht[1], "--field", "density", "--out", "o.cube",
+            ],
+            "Ne",
+        ),
+        (
+            &[
+                "volume",
+                "m.toml",
+                "--field",
+                "deformation",
+                "--out",
+                "o.cube",
+            ],
+            "free-atom reference",
+        ),
+    ];
+    for (args, needle) in cases {
+        let out = run(d.path(), args);
+        assert_input_error(d.path(), &out, needle, &keep);
+    }
+    let out = run(
+        d.path(),
+        &["solve", "w.xyz", eht[0], eht[1], "--json", "w.json"],
+    );
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert_eq!(
+        out.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    assert!(text.contains("HOMO") && text.contains("LUMO") && text.contains("Mulliken"));
+    assert!(text.contains("semi-empirical and qualitative"), "{text}");
+    let json = fs::read_to_string(d.path().join("w.json")).unwrap();
+    assert!(json.contains("semi-empirical"));
+    let out = run(
+        d.path(),
+        &[
+            "volume",
+            "w.xyz",
+            eht[0],
+            eht[1],
+            "--field",
+            "orbital:homo",
+            "--field",
+            "lumo-x",
+            "--out",
+            "f.cube",
+        ],
+    );
+    assert_eq!(out.status.code(), Some(2));
+    let out = run(
+        d.path(),
+        &[
+            "volume",
+            "w.xyz",
+            eht[0],
+            eht[1],
+            "--field",
+            "orbital:homo",
+            "--field",
+            "orbital:lumo",
+            "--field",
+            "deformation",
+            "--spacing",
+            "0.3",
+            "--out",
+            "f.cube",
+        ],
+    );
+    assert_eq!(
+        out.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    assert!(d.path().join("f.cube").exists());
+}

@@ -2,13 +2,40 @@
 
 use std::path::Path;
 
+use clap::Args;
+
 use crate::chem::LengthUnit;
 use crate::error::Result;
-use crate::model::{self, Model};
+use crate::model::{self, LoadOptions, Method, Model};
 
-/// Loads a model file (TOML).
+/// Loads a model file (TOML) or an orbital file.
 pub fn load_model(path: &Path) -> Result<Model> {
     model::load(path)
+}
+
+/// How to treat an XYZ file given in place of a model file.
+#[derive(Debug, Args, Clone, Default)]
+pub struct XyzFlags {
+    /// For an XYZ file: how to get the orbitals (extended-huckel)
+    #[arg(long, value_name = "METHOD")]
+    pub method: Option<String>,
+    /// For an XYZ file: the net charge of the molecule [default: 0]
+    #[arg(long, allow_negative_numbers = true, value_name = "Q")]
+    pub charge: Option<i32>,
+}
+
+impl XyzFlags {
+    pub fn options(&self) -> Result<LoadOptions> {
+        Ok(LoadOptions {
+            method: self.method.as_deref().map(Method::parse).transpose()?,
+            charge: self.charge,
+        })
+    }
+}
+
+/// Loads a model file, an orbital file, or an XYZ file with the method flags.
+pub fn load_model_with(path: &Path, flags: &XyzFlags) -> Result<Model> {
+    model::load_with(path, &flags.options()?)
 }
 
 /// Converts a length flag to bohr.

@@ -24,6 +24,8 @@ pub const ON_LINE_BOHR: f64 = 0.05;
 pub struct ProfileArgs {
     /// Model file (.toml), orbital file (.json) or cube file (.cube, .cube.gz)
     pub source: PathBuf,
+    #[command(flatten)]
+    pub xyz: super::common::XyzFlags,
     /// Field to follow; repeat for several (one column and one line each)
     #[arg(long = "field", required = true, value_name = "FIELD")]
     pub fields: Vec<String>,
@@ -83,7 +85,7 @@ pub fn run(args: ProfileArgs) -> Result<()> {
     let from = Endpoint::parse(&args.from, args.units)?;
     let to = Endpoint::parse(&args.to, args.units)?;
     let extend = parse_length(&args.extend, args.units)?;
-    let source = Source::load(&args.source)?;
+    let source = Source::load(&args.source, &args.xyz.options()?)?;
     for p in [&args.csv, &args.png].into_iter().flatten() {
         check_not_input(p, source.inputs())?;
     }

@@ -31,6 +31,8 @@ pub enum Background {
 pub struct SliceArgs {
     /// Model file (.toml), orbital file (.json) or cube file (.cube, .cube.gz)
     pub source: PathBuf,
+    #[command(flatten)]
+    pub xyz: super::common::XyzFlags,
     /// Field to draw: orbital:N, orbital-density:N, orbital-deformation:N (N = number,
     /// homo, lumo, …) or density
     #[arg(long, required_unless_present = "panels", conflicts_with = "panels")]
@@ -114,7 +116,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
             "--log takes 0 < decades ≤ 12, got {d}"
         )));
     }
-    let source = Source::load(&args.source)?;
+    let source = Source::load(&args.source, &args.xyz.options()?)?;
     check_not_input(&args.png, source.inputs())?;
     let molecule = source.molecule();
     let plane = spec.resolve(molecule, args.up)?;

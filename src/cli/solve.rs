@@ -4,35 +4,52 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use super::common::{load_model, print_notes, print_out, say};
+use super::common::{XyzFlags, load_model_with, print_notes, print_out, say};
 use crate::chem::units::hartree_to_ev;
 use crate::error::Result;
 use crate::solve::{OrbitalSet, orbitals_for};
 
 #[derive(Debug, Args)]
 pub struct SolveArgs {
-    /// Model file (TOML) or orbital file (.json)
+    /// Model file (TOML), orbital file (.json), or XYZ file with --method
     pub model: PathBuf,
+    #[command(flatten)]
+    pub xyz: XyzFlags,
     /// Write the orbitals as an orbital file (JSON, bohr and hartree)
     #[arg(long, value_name = "FILE")]
     pub json: Option<PathBuf>,
 }
 
 pub fn run(args: SolveArgs) -> Result<()> {
-    let model = load_model(&args.model)?;
+    let model = load_model_with(&args.model, &args.xyz)?;
     if let Some(path) = &args.json {
         crate::output::check_not_input(path, &model.inputs)?;
     }
     let set = orbitals_for(&model)?;
-    say!(
-        "lobecast solve: {} from {}, {}, {} electron(s); energies include the nuclear repulsion {:.8} hartree",
-        set.molecule.formula_with_charge(),
-        model.path.display(),
-        set.method,
-        set.molecule.electron_count(),
-        set.molecule.nuclear_repulsion()
-    );
+    // Extended-Hückel sets (solved now or read back from an orbital file) have no
+    // total energy to speak of.
+    if set.reference.is_some() || set.method.starts_with("extended Hückel") {
+        let electrons: f64 = set.orbitals.iter().map(|o| o.occupation).sum();
+        say!(
+            "lobecast solve: {} from {}, {}, {electrons} valence electron(s); orbital energies only (no total energy)",
+            set.molecule.formula_with_charge(),
+            model.path.display(),
+            set.method,
+        );
+    } else {
+        say!(
+            "lobecast solve: {} from {}, {}, {} electron(s); energies include the nuclear repulsion {:.8} hartree",
+            set.molecule.formula_with_charge(),
+            model.path.display(),
+            set.method,
+            set.molecule.electron_count(),
+            set.molecule.nuclear_repulsion()
+        );
+    }
     print_out(&table(&set))?;
+    if let Some(q) = set.mulliken_charges() {
+        print_out(&charges(&set, &q))?;
+    }
     print_notes(&set.notes)?;
     if let Some(path) = &args.json {
         crate::output::write_bytes(
@@ -47,18 +64,37 @@ pub fn run(args: SolveArgs) -> Result<()> {
 
 fn table(set: &OrbitalSet) -> String {
     let mut t = format!(
-        "{:>4} {:>16} {:>12} {:>5}  {}\n",
-        "#", "energy/hartree", "energy/eV", "occ", "largest coefficients"
+        "{:>4} {:>16} {:>12} {:>5} {:>4}  {}\n",
+        "#", "energy/hartree", "energy/eV", "occ", "", "largest coefficients"
     );
+    let homo = set.orbitals.iter().rposition(|o| o.occupation > 1e-12);
+    let lumo = homo.map_or(0, |h| h + 1);
     for (i, o) in set.orbitals.iter().enumerate() {
+        let mark = if Some(i) == homo {
+            "HOMO"
+        } else if i == lumo {
+            "LUMO"
+        } else {
+            ""
+        };
         t += &format!(
-            "{:>4} {:16.8} {:12.5} {:5.2}  {}\n",
+            "{:>4} {:16.8} {:12.5} {:5.2} {mark:>4}  {}\n",
             i + 1,
             o.energy,
             hartree_to_ev(o.energy),
             o.occupation,
             character(set, &o.coefficients)
         );
+    }
+    t
+}
+
+/// Mulliken charges per atom (valence electrons of the free atom minus the gross
+/// population), labelled with the method's caution.
+fn charges(set: &OrbitalSet, q: &[f64]) -> String {
+    let mut t = String::from("Mulliken charges (semi-empirical, qualitative):\n");
+    for (i, (a, q)) in set.molecule.atoms.iter().zip(q).enumerate() {
+        t += &format!("{:>4} {:<2} {:+9.4}\n", i + 1, a.element.symbol, q);
     }
     t
 }

@@ -76,14 +76,15 @@ pub struct FieldInfo {
 
 impl Source {
     /// Reads a source by its file type.
-    pub fn load(path: &Path) -> Result<Self> {
+    /// `options` say how to treat an XYZ file (method, charge).
+    pub fn load(path: &Path, options: &model::LoadOptions) -> Result<Self> {
         let ext = path
             .extension()
             .map(|e| e.to_string_lossy().to_ascii_lowercase())
             .unwrap_or_default();
         match ext.as_str() {
-            "toml" | "json" => {
-                let m = model::load(path)?;
+            "toml" | "json" | "xyz" => {
+                let m = model::load_with(path, options)?;
                 let set = orbitals_for(&m)?;
                 Ok(Source::Orbitals { set, inputs: m.inputs })
             }
@@ -105,7 +106,7 @@ impl Source {
                 Ok(Source::Volume { volume, molecule, inputs: vec![path.to_path_buf()] })
             }
             _ => Err(Error::input(format!(
-                "cannot use {} as a source: expected a model file (.toml), an orbital file (.json) or a cube file (.cube, .cube.gz)",
+                "cannot use {} as a source: expected a model file (.toml), an orbital file (.json), an XYZ file with --method, or a cube file (.cube, .cube.gz)",
                 path.display()
             ))
             .with_hint("e.g. examples/h2-cation.toml")),
@@ -232,6 +233,11 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
             format!("Δρ_{{{n}}}"),
             format!("orbital deformation density {n}"),
         ),
+        Field::Deformation => (
+            "deformation density (valence, against neutral spherical atoms)".to_string(),
+            "Δρ".to_string(),
+            "deformation density".to_string(),
+        ),
         Field::Density | Field::Stored(_) => (
             "electron density".to_string(),
             "ρ".to_string(),
@@ -243,7 +249,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
         _ => "e bohr^{−3}",
     };
     let short = match field {
-        Field::Density => quantity.clone(),
+        Field::Density | Field::Deformation => quantity.clone(),
         _ => format!(
             "{quantity}, E_{{{n}}} = {} hartree",
             minus(format!("{:.4}", set.orbitals[n - 1].energy))
@@ -252,7 +258,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
     let family = match field {
         Field::Orbital(_) => "ψ",
         Field::OrbitalDensity(_) => "|ψ|^{2}",
-        Field::OrbitalDeformation(_) => "Δρ",
+        Field::OrbitalDeformation(_) | Field::Deformation => "Δρ",
         Field::Density | Field::Stored(_) => "ρ",
     };
     Ok(FieldInfo {

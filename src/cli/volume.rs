@@ -6,7 +6,7 @@ use std::time::Instant;
 
 use clap::Args;
 
-use super::common::{length, load_model, print_notes, say};
+use super::common::{XyzFlags, length, load_model_with, print_notes, say};
 use crate::chem::LengthUnit;
 use crate::cube::sink::CubeSink;
 use crate::cube::{CubeAtom, CubeHeader, write_streaming};
@@ -23,11 +23,13 @@ pub const DEFAULT_SPACING_BOHR: f64 = 0.15;
 
 #[derive(Debug, Args)]
 pub struct VolumeArgs {
-    /// Model file (TOML)
+    /// Model file (TOML), orbital file (.json), or XYZ file with --method
     pub model: PathBuf,
+    #[command(flatten)]
+    pub xyz: XyzFlags,
     /// Field to sample; repeat for several (stored together in one multi-orbital cube).
     /// orbital:N, orbital-density:N, orbital-deformation:N (N = number, homo, lumo,
-    /// homo-1, lumo+1, …) or density
+    /// homo-1, lumo+1, …), density, or deformation (against neutral spherical atoms)
     #[arg(long = "field", required = true, value_name = "FIELD")]
     pub fields: Vec<String>,
     /// Distance between grid points (in --units) [default: 0.15 bohr]
@@ -57,7 +59,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         .iter()
         .map(|f| Field::parse(f))
         .collect::<Result<Vec<_>>>()?;
-    let model = load_model(&args.model)?;
+    let model = load_model_with(&args.model, &args.xyz)?;
     crate::output::check_not_input(&args.out, &model.inputs)?;
     let set = orbitals_for(&model)?;
     let sampler = FieldSampler::new(&set, &fields)?;

@@ -15,6 +15,9 @@ enum Resolved {
     OrbitalDeformation(Vec<f64>, Vec<f64>),
     /// (occupation, coefficients) of every occupied orbital.
     Density(Vec<(f64, Vec<f64>)>),
+    /// The occupied orbitals as for `Density`, and the free-atom occupation of
+    /// every function.
+    Deformation(Vec<(f64, Vec<f64>)>, Vec<f64>),
 }
 
 /// Evaluates a list of fields of one orbital set at points. Values come out
@@ -47,12 +50,16 @@ impl FieldSampler {
                     set.gross_populations(index.expect("orbital field"))?,
                 ),
                 Field::Stored(_) => return Err(super::stored_needs_cube()),
-                Field::Density => Resolved::Density(
-                    set.orbitals
-                        .iter()
-                        .filter(|o| o.occupation > 0.0)
-                        .map(|o| (o.occupation, o.coefficients.clone()))
-                        .collect(),
+                Field::Density => Resolved::Density(occupied(set)),
+                Field::Deformation => Resolved::Deformation(
+                    occupied(set),
+                    set.reference.clone().ok_or_else(|| {
+                        crate::error::Error::input(format!(
+                            "deformation needs the free-atom reference occupations, which {} does not provide",
+                            set.method
+                        ))
+                        .with_hint("use --method extended-huckel, or orbital-deformation:N for one orbital")
+                    })?,
                 ),
             });
         }
@@ -128,11 +135,14 @@ impl FieldSampler {
                     scatter(out, nf, k, psi.iter().copied());
                 }
                 Resolved::Density(list) => {
-                    let mut rho = vec![0.0; n];
-                    for (occ, c) in list {
-                        combine(phi, c, n, &mut psi);
-                        for (r, v) in rho.iter_mut().zip(&psi) {
-                            *r += occ * v * v;
+                    let rho = density(phi, list, n, &mut psi);
+                    scatter(out, nf, k, rho.into_iter());
+                }
+                Resolved::Deformation(list, reference) => {
+                    let mut rho = density(phi, list, n, &mut psi);
+                    for (m, &r0) in reference.iter().enumerate().filter(|(_, r)| **r != 0.0) {
+                        for (r, p) in rho.iter_mut().zip(&phi[m * n..(m + 1) * n]) {
+                            *r -= r0 * p * p;
                         }
                     }
                     scatter(out, nf, k, rho.into_iter());
@@ -140,6 +150,26 @@ impl FieldSampler {
             }
         }
     }
+}
+
+fn occupied(set: &OrbitalSet) -> Vec<(f64, Vec<f64>)> {
+    set.orbitals
+        .iter()
+        .filter(|o| o.occupation > 0.0)
+        .map(|o| (o.occupation, o.coefficients.clone()))
+        .collect()
+}
+
+/// Σ_i n_i ψ_i(p)² at every point.
+fn density(phi: &[f64], list: &[(f64, Vec<f64>)], n: usize, psi: &mut [f64]) -> Vec<f64> {
+    let mut rho = vec![0.0; n];
+    for (occ, c) in list {
+        combine(phi, c, n, psi);
+        for (r, v) in rho.iter_mut().zip(psi.iter()) {
+            *r += occ * v * v;
+        }
+    }
+    rho
 }
 
 /// ψ(p) = Σ_μ c_μ φ_μ(p) for every point, with φ stored function-major.

@@ -1,5 +1,5 @@
 //! What to evaluate: the `Field` enum, parsed from `orbital:N`, `orbital-density:N`,
-//! `orbital-deformation:N` and `density`, and its batched evaluation at points.
+//! `orbital-deformation:N`, `density` and `deformation`, and its batched evaluation at points.
 
 pub mod buildup;
 mod eval;
@@ -21,11 +21,15 @@ pub enum Field {
     OrbitalDeformation(OrbitalSelector),
     /// Σ_i n_i |ψ_i|² over occupied orbitals, bohr⁻³.
     Density,
+    /// Density minus the superposition of neutral, spherical free atoms in the same
+    /// functions: Σ_i n_i |ψ_i|² − Σ_μ n⁰_μ φ_μ², with n⁰ the free-atom ground-state
+    /// occupations (p spread evenly). Integrates to −charge. bohr⁻³.
+    Deformation,
     /// The K-th field stored in a cube file (from 1), interpolated between its points.
     Stored(usize),
 }
 
-const ACCEPTED: &str = "orbital:N, orbital-density:N, orbital-deformation:N (N a number, homo, lumo, homo-1, lumo+1, …), density, or stored:K for the K-th field of a cube file";
+const ACCEPTED: &str = "orbital:N, orbital-density:N, orbital-deformation:N (N a number, homo, lumo, homo-1, lumo+1, …), density, deformation, or stored:K for the K-th field of a cube file";
 
 impl Field {
     pub fn parse(text: &str) -> Result<Self> {
@@ -36,6 +40,7 @@ impl Field {
         };
         match t.split_once(':') {
             None if t.eq_ignore_ascii_case("density") => Ok(Field::Density),
+            None if t.eq_ignore_ascii_case("deformation") => Ok(Field::Deformation),
             None => Err(bad()),
             Some((kind, k)) if kind.eq_ignore_ascii_case("stored") => {
                 match k.trim().parse::<usize>() {
@@ -60,13 +65,16 @@ impl Field {
     pub fn selector(&self) -> Option<OrbitalSelector> {
         match self {
             Field::Orbital(s) | Field::OrbitalDensity(s) | Field::OrbitalDeformation(s) => Some(*s),
-            Field::Density | Field::Stored(_) => None,
+            Field::Density | Field::Deformation | Field::Stored(_) => None,
         }
     }
 
     /// Whether the field takes both signs (drives colour scales and isovalues).
     pub fn is_signed(&self) -> bool {
-        matches!(self, Field::Orbital(_) | Field::OrbitalDeformation(_))
+        matches!(
+            self,
+            Field::Orbital(_) | Field::OrbitalDeformation(_) | Field::Deformation
+        )
     }
 
     /// Unit of the field's values in atomic units.
@@ -85,6 +93,12 @@ impl Field {
             Field::OrbitalDensity(_) => "orbital density",
             Field::OrbitalDeformation(_) => "orbital deformation density",
             Field::Density => return Ok(format!("electron density ({})", self.unit())),
+            Field::Deformation => {
+                return Ok(format!(
+                    "deformation density against neutral spherical atoms ({})",
+                    self.unit()
+                ));
+            }
             Field::Stored(_) => return Err(stored_needs_cube()),
         };
         let i = self
@@ -123,6 +137,7 @@ impl std::fmt::Display for Field {
             Field::OrbitalDensity(s) => write!(f, "orbital-density:{s}"),
             Field::OrbitalDeformation(s) => write!(f, "orbital-deformation:{s}"),
             Field::Density => write!(f, "density"),
+            Field::Deformation => write!(f, "deformation"),
             Field::Stored(k) => write!(f, "stored:{k}"),
         }
     }

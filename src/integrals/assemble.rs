@@ -158,7 +158,8 @@ pub fn slater_1s_matrices(molecule: &Molecule, basis: &Basis) -> Result<OneElect
 }
 
 /// The overlap matrix where lobecast can compute it: all-Gaussian bases (analytic),
-/// or 1s Slater functions on pairs of centres with equal exponents or on one centre.
+/// 1s Slater functions on pairs of centres with equal exponents or on one centre, or
+/// any Slater s and p functions (`slater_overlap`).
 /// `None` otherwise; fields that need it (Mulliken populations) then say so.
 pub fn overlap_matrix(_molecule: &Molecule, basis: &Basis) -> Option<DMatrix<f64>> {
     if let Some(shells) = gaussians(basis) {
@@ -166,14 +167,19 @@ pub fn overlap_matrix(_molecule: &Molecule, basis: &Basis) -> Option<DMatrix<f64
             transform(a, b, &overlap_block(&cartesian(a), &cartesian(b)))
         }));
     }
-    let s1: Vec<_> = basis
+    let s1: Option<Vec<_>> = basis
         .shells
         .iter()
         .map(|s| match s {
             Shell::Slater(s) if s.is_1s() => Some(s),
             _ => None,
         })
-        .collect::<Option<_>>()?;
+        .collect();
+    let Some(s1) = s1 else {
+        // Slater s and p functions (e.g. an extended-Hückel basis read back from an
+        // orbital file): the numerically exact two-centre overlaps.
+        return super::slater_overlap_matrix(basis).ok();
+    };
     let n = s1.len();
     let mut m = DMatrix::identity(n, n);
     for i in 0..n {

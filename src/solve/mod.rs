@@ -4,6 +4,8 @@
 pub mod brent;
 pub mod curve;
 pub mod eigen;
+pub mod huckel;
+pub mod huckel_params;
 pub mod one_electron;
 pub mod orbital_file;
 pub mod orbitals;
@@ -17,6 +19,10 @@ use crate::model::{Method, Model};
 pub fn orbitals_for(model: &Model) -> Result<OrbitalSet> {
     match (model.method, &model.orbitals) {
         (Method::OneElectron, _) => one_electron::solve(&model.molecule, &model.basis),
+        (Method::ExtendedHuckel, _) => huckel::solve(
+            &model.molecule,
+            model.huckel.as_ref().unwrap_or(&Default::default()),
+        ),
         (Method::File, Some(set)) => Ok(set.clone()),
         (Method::File, None) => Err(crate::error::Error::internal(
             "a file model without its orbitals",

@@ -20,7 +20,7 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
             molecule.formula(),
             molecule.charge
         ))
-        .with_hint("for more electrons use [orbitals] method = \"file\" with orbitals from another program (or extended Hückel once available); for one electron set charge so that nuclear charges minus charge = 1"));
+        .with_hint("for more electrons use [orbitals] method = \"file\" with orbitals from another program (or method = \"extended-huckel\" for qualitative valence orbitals); for one electron set charge so that nuclear charges minus charge = 1"));
     }
     let matrices = if basis.all_gaussian() {
         gaussian_matrices(molecule, basis)?
@@ -63,5 +63,6 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         orbitals,
         method: format!("one-electron, {}", basis.name),
         notes,
+        reference: None,
     })
 }

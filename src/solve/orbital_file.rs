@@ -29,6 +29,11 @@ struct Doc {
     orbitals: Vec<OrbitalEntry>,
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     notes: Vec<String>,
+    /// Free-atom valence occupation of every basis function, for valence-only sets
+    /// (extended Hückel): the deformation reference, and the electron count of the
+    /// neutral atoms, so the charge reads back right.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    reference_occupations: Option<Vec<f64>>,
 }
 
 #[derive(Debug, Serialize, Deserialize)]
@@ -190,7 +195,24 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         notes.push("the orbitals were renumbered in increasing energy".into());
     }
     let electrons: f64 = orbitals.iter().map(|o| o.occupation).sum();
-    let nuclear: f64 = atoms.iter().map(Atom::charge).sum();
+    let reference = doc.reference_occupations.clone();
+    if let Some(r) = &reference {
+        if r.len() != basis.len() || r.iter().any(|v| !(v.is_finite() && *v >= 0.0)) {
+            return Err(bad(
+                "reference_occupations".into(),
+                format!(
+                    "needs one non-negative number per basis function ({}), got {} values",
+                    basis.len(),
+                    r.len()
+                ),
+            ));
+        }
+    }
+    // A valence-only set counts the neutral atoms' valence electrons, not Z.
+    let nuclear: f64 = match &reference {
+        Some(r) => r.iter().sum(),
+        None => atoms.iter().map(Atom::charge).sum(),
+    };
     let molecule = Molecule::new(atoms, (nuclear - electrons).round() as i32)
         .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
     let overlap = crate::integrals::overlap_matrix(&molecule, &basis);
@@ -201,6 +223,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         orbitals,
         method: doc.method.unwrap_or_else(|| format!("orbital file {name}")),
         notes,
+        reference,
     })
 }
 
@@ -384,6 +407,7 @@ pub fn to_json(set: &OrbitalSet) -> String {
             })
             .collect(),
         notes: set.notes.clone(),
+        reference_occupations: set.reference.clone(),
     };
     serde_json::to_string_pretty(&doc).expect("orbital sets serialise") + "\n"
 }

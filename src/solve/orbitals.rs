@@ -36,6 +36,9 @@ pub struct OrbitalSet {
     /// Plain statements the user must see with the numbers: what the model may and
     /// may not be used for, and anything the solver had to do (dropped functions).
     pub notes: Vec<String>,
+    /// Free-atom valence occupation of each basis function (the neutral, spherical
+    /// atoms the deformation density is measured against), where the method has one.
+    pub reference: Option<Vec<f64>>,
 }
 
 impl OrbitalSet {
@@ -52,6 +55,30 @@ impl OrbitalSet {
         Ok((0..c.len())
             .map(|m| c[m] * (0..c.len()).map(|n| s[(m, n)] * c[n]).sum::<f64>())
             .collect())
+    }
+}
+
+impl OrbitalSet {
+    /// Mulliken charge of every atom: its free-atom valence electrons minus its
+    /// gross population summed over the occupied orbitals. Needs the overlap and
+    /// the free-atom reference.
+    pub fn mulliken_charges(&self) -> Option<Vec<f64>> {
+        let reference = self.reference.as_ref()?;
+        self.overlap.as_ref()?;
+        let mut q = vec![0.0; self.molecule.atoms.len()];
+        let atoms: Vec<usize> = self.basis.function_labels().iter().map(|l| l.0).collect();
+        for (m, &a) in atoms.iter().enumerate() {
+            q[a] += reference[m];
+        }
+        for (i, o) in self.orbitals.iter().enumerate() {
+            if o.occupation > 0.0 {
+                let pops = self.gross_populations(i).ok()?;
+                for (m, p) in pops.iter().enumerate() {
+                    q[atoms[m]] -= o.occupation * p;
+                }
+            }
+        }
+        Some(q)
     }
 }
 
