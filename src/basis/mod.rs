@@ -4,6 +4,7 @@
 
 pub mod named;
 pub mod slater;
+pub mod sto_ng;
 
 use std::collections::BTreeMap;
 
