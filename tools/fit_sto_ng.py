@@ -87,6 +87,12 @@ def best_overlap(kind, alphas):
     return o, [c[i] / o for i in range(len(alphas))]
 
 
+def objective(group, logs):
+    """Sum of the group's best overlaps, in mpmath."""
+    alphas = [mp.exp(mp.mpf(u)) for u in logs]
+    return sum(best_overlap(kind, alphas)[0] for kind in group)
+
+
 def float_objective(group, logs):
     """Sum of the group's best overlaps in double precision, for the global search.
 
@@ -155,30 +161,72 @@ def gradient(group, logs):
     return g
 
 
-def fit(group, m):
-    """Exponents (sorted, decreasing) and per-kind (overlap, coefficients)."""
-    best = None
+def newton(group, u):
+    """Converges the stationarity condition in mpmath; None when it does not converge."""
+    m = len(u)
+    try:
+        if m == 1:
+            u = [mp.findroot(lambda t: gradient(group, [t])[0], u[0], tol=mp.mpf(10) ** -70, maxsteps=50, verify=False)]
+        else:
+            fs = [(lambda i: lambda *v: gradient(group, list(v))[i])(i) for i in range(m)]
+            r = mp.findroot(fs, u, tol=mp.mpf(10) ** -70, maxsteps=50, verify=False)
+            u = [r[i] for i in range(m)]
+    except (ZeroDivisionError, ValueError):
+        return None
+    if max(abs(x) for x in gradient(group, u)) < mp.mpf(10) ** -30:
+        return u
+    return None
+
+
+def fit(group, m, previous=None):
+    """Exponents (sorted, decreasing) and per-kind (overlap, coefficients).
+
+    Starts: even-tempered sets, and the (m - 1)-term optimum `previous` with one
+    exponent added at the tight end, the diffuse end or between each pair; the best
+    double-precision optimum is then converged in mpmath.
+    """
     centre = {1: 0.3, 2: 0.1, 3: 0.06}[KINDS[group[0]][0]]
-    for ratio in (2.2, 3.0, 4.5):
-        # Even-tempered start centred near the Slater function's extent.
-        start = [math.log(centre) + ((m - 1) / 2 - i) * math.log(ratio) for i in range(m)]
+    starts = [
+        [math.log(centre) + ((m - 1) / 2 - i) * math.log(ratio) for i in range(m)] for ratio in (2.2, 3.0, 4.5)
+    ]
+    if previous:
+        logs = sorted((math.log(float(a)) for a in previous), reverse=True)
+        starts.append([logs[0] + math.log(3.0)] + logs)
+        starts.append(logs + [logs[-1] - math.log(3.0)])
+        for i in range(len(logs) - 1):
+            starts.append(logs[: i + 1] + [(logs[i] + logs[i + 1]) / 2] + logs[i + 1 :])
 
-        def f(u):
-            return -float_objective(group, u)
+    def f(u):
+        return -float_objective(group, u)
 
+    optima = []
+    for start in starts:
         r = minimize(f, start, method="Nelder-Mead", options={"xatol": 1e-6, "fatol": 1e-13, "maxiter": 4000 * m})
         r = minimize(f, r.x, method="BFGS", options={"gtol": 1e-10})
-        if best is None or r.fun < best.fun - 1e-12:
-            best = r
-    u = [mp.mpf(float(x)) for x in best.x]
-    if m == 1:
-        u = [mp.findroot(lambda t: gradient(group, [t])[0], u[0], tol=mp.mpf(10) ** -70, maxsteps=50, verify=False)]
+        optima.append(r)
+    # Refine each with exact (mpmath) values and analytic gradients rounded to double:
+    # the double-precision objective is only good to about 1e-12 for 3d, which is
+    # enough to find the valleys but not to rank or converge them.
+    refined = [
+        minimize(
+            lambda v: -float(objective(group, list(v))),
+            r.x,
+            jac=lambda v: -np.array([float(x) for x in gradient(group, list(v))]),
+            method="BFGS",
+            options={"gtol": 1e-14, "maxiter": 2000},
+        )
+        for r in optima
+    ]
+    refined.sort(key=lambda r: r.fun)
+    # Newton from the best; should it not converge, from the next best, and so on.
+    for r in refined:
+        u = newton(group, [mp.mpf(float(x)) for x in r.x])
+        # Accept only a point at least as good as the best refined optimum, so that a
+        # saddle or a worse local optimum is never taken.
+        if u is not None and float(objective(group, u)) >= -refined[0].fun - 1e-13:
+            break
     else:
-        fs = [(lambda i: lambda *v: gradient(group, list(v))[i])(i) for i in range(m)]
-        r = mp.findroot(fs, u, tol=mp.mpf(10) ** -70, maxsteps=50, verify=False)
-        u = [r[i] for i in range(m)]
-    residual = max(abs(x) for x in gradient(group, u))
-    assert residual < mp.mpf(10) ** -30, (group, m, residual)
+        raise RuntimeError(f"no converged fit for {group} with {m} Gaussians")
     alphas = sorted((mp.exp(x) for x in u), reverse=True)
     return alphas, {kind: best_overlap(kind, alphas) for kind in group}
 
@@ -187,8 +235,9 @@ def all_fits(max_gaussians=6):
     """{(kind, m): (alphas, overlap, coefficients)} for every kind and m = 1..6."""
     out = {}
     for group in GROUPS:
+        alphas = None
         for m in range(1, max_gaussians + 1):
-            alphas, per_kind = fit(group, m)
+            alphas, per_kind = fit(group, m, alphas)
             for kind, (o, d) in per_kind.items():
                 out[(kind, m)] = (alphas, o, d)
     return out

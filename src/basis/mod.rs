@@ -7,6 +7,7 @@ pub mod harmonics;
 pub mod named;
 pub mod sets;
 pub mod slater;
+pub mod sto_ng;
 
 pub use gaussian::{Angular, GaussianShell};
 pub use sets::BasisSpec;
