@@ -14,6 +14,8 @@ use crate::output::write_bytes;
 
 /// The scenario's built-in model: the one-electron hydrogen molecular ion.
 const H2_CATION: &str = include_str!("../../examples/h2-cation.toml");
+/// The small π-bonded molecule of part 2 (geometry and its source in the file).
+const ETHYLENE: &str = include_str!("../../examples/ethylene.xyz");
 
 #[derive(Debug, Args)]
 pub struct DemoArgs {
@@ -134,6 +136,27 @@ fn steps(quick: bool) -> Vec<Step> {
                 .collect(),
         });
     }
+    let eht = "models/ethylene.xyz --method extended-huckel";
+    s.push(step(
+        "ethylene π orbitals across the C=C bond",
+        &[("ethylene-frontier-xz.png", "ethylene HOMO (π) and LUMO (π*) in the plane through the C=C bond perpendicular to the molecule: one nodal plane, two for π*")],
+        &format!("slice {eht} --panels orbital:homo,orbital:lumo --shared-scale --plane xz --zero-contour --size {size} --png ethylene-frontier-xz.png"),
+    ));
+    s.push(step(
+        "ethylene π orbitals above the molecular plane",
+        &[("ethylene-frontier-above.png", "HOMO and LUMO 0.5 Å above the molecular plane (in the plane itself both vanish)")],
+        &format!("slice {eht} --panels orbital:homo,orbital:lumo --shared-scale --plane xy@0.5 --zero-contour --size {size} --png ethylene-frontier-above.png"),
+    ));
+    s.push(step(
+        "ethylene deformation density",
+        &[("ethylene-deformation.png", "valence density minus spherical free atoms in the molecular plane: density gathered in the C–C and C–H bonds")],
+        &format!("slice {eht} --field deformation --plane xy --size {size} --png ethylene-deformation.png"),
+    ));
+    s.push(step(
+        "ethylene cube volumes",
+        &[("ethylene.cube", "ethylene HOMO, LUMO, valence density and deformation density for a 3-D viewer (bohr)")],
+        &format!("volume {eht} --field orbital:homo --field orbital:lumo --field density --field deformation --spacing {h} --units bohr --out ethylene.cube"),
+    ));
     s.push(step(
         "cube volumes near the equilibrium",
         &[("h2plus-r2.5.cube", "orbitals 1 and 2 and their deformation densities at R = 2.5 bohr, for a 3-D viewer (bohr)")],
@@ -147,6 +170,7 @@ pub fn run(args: DemoArgs) -> Result<()> {
     let out = &args.out;
     std::fs::create_dir_all(out.join("models"))
         .map_err(|e| Error::input(format!("cannot create the folder {}: {e}", out.display())))?;
+    write_bytes(&out.join("models/ethylene.xyz"), &[], ETHYLENE.as_bytes())?;
     for r in [1.2, 2.5, 5.0] {
         write_bytes(
             &out.join(format!("models/h2plus-r{r:.1}.toml")),
@@ -158,7 +182,7 @@ pub fn run(args: DemoArgs) -> Result<()> {
         .map_err(|e| Error::internal(format!("cannot find the lobecast binary: {e}")))?;
     let steps = steps(args.quick);
     say!(
-        "lobecast demo: a gallery for the Larkspur Hill teaching lab's report on one-electron bonds, in {}{}",
+        "lobecast demo: a gallery for the Larkspur Hill teaching lab's report on chemical bonding, in {}{}",
         out.display(),
         if args.quick { " (quick)" } else { "" }
     );
@@ -207,9 +231,11 @@ fn gallery(steps: &[Step]) -> String {
          hydrogen molecular ion: how a single electron shared by two protons piles up between them in the \
          bonding orbital and is pushed out by a nodal plane in the antibonding one, and how that changes with \
          the separation R. Run each command from this folder to make its file on its own.\n\n\
-         The model is a minimal basis (one 1s Slater function per nucleus): its pictures are qualitatively \
-         right, but its energies are variational upper bounds and its bond is too weak — use the numbers for \
-         trends, not as quantitative results.\n\n\
+         The second part applies the same questions to ethylene, a small π-bonded molecule, with extended \
+         Hückel orbitals.\n\n\
+         Both are qualitative models. The ion's minimal basis (one 1s Slater function per nucleus) gives \
+         pictures that are right in shape, but energies that are variational upper bounds and a bond that is \
+         too weak; extended Hückel is semi-empirical. Use the numbers for trends, not as quantitative results.\n\n\
          | file | what it shows | command |\n| --- | --- | --- |\n",
     );
     for s in steps {
