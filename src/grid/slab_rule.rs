@@ -11,30 +11,7 @@
 
 use std::f64::consts::PI;
 
-/// Gauss–Legendre nodes and weights on [−1, 1] (Newton iteration on P_n).
-fn gauss_legendre(n: usize) -> Vec<(f64, f64)> {
-    (0..n)
-        .map(|i| {
-            let mut x = (PI * (i as f64 + 0.75) / (n as f64 + 0.5)).cos();
-            let mut dp = 1.0;
-            for _ in 0..100 {
-                let (mut p0, mut p1) = (1.0, x);
-                for k in 2..=n {
-                    let p2 = ((2 * k - 1) as f64 * x * p1 - (k - 1) as f64 * p0) / k as f64;
-                    p0 = p1;
-                    p1 = p2;
-                }
-                dp = n as f64 * (x * p1 - p0) / (x * x - 1.0);
-                let dx = p1 / dp;
-                x -= dx;
-                if dx.abs() < 1e-16 {
-                    break;
-                }
-            }
-            (x, 2.0 / ((1.0 - x * x) * dp * dp))
-        })
-        .collect()
-}
+use crate::integrals::quadrature::gauss_legendre;
 
 /// Nodes and weights on [a, b] from panels whose edges are `edges` (increasing).
 fn panels(edges: &[f64], rule: &[(f64, f64)]) -> Vec<(f64, f64)> {
