@@ -6,6 +6,7 @@
 //! on a grid → sinks (cube files, tables). Each stage is a plain function on plain data.
 
 pub mod basis;
+pub mod budget;
 pub mod chem;
 pub mod cli;
 pub mod cube;
