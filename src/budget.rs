@@ -57,7 +57,8 @@ pub fn show_bytes(bytes: f64) -> String {
 /// memory is for ("the stored fields of a 1000×1000×1000 cube"). The estimate is an
 /// f64 so that products of user counts cannot wrap before they are compared.
 pub fn check_memory(estimate: f64, budget: u64, what: &str) -> Result<()> {
-    if !(estimate <= budget as f64) {
+    // NaN (an estimate that overflowed) is refused too.
+    if estimate.is_nan() || estimate > budget as f64 {
         return Err(Error::input(format!(
             "{what} would need about {} of memory, over the budget of {}",
             show_bytes(estimate),

@@ -9,7 +9,7 @@ use crate::cube::arith::{Term, atoms_difference, compare_grids, write_weighted_s
 use crate::cube::sink::CubeSink;
 use crate::cube::{CubeHeader, CubeReader};
 use crate::error::{Error, Result};
-use crate::output::OutputFile;
+use crate::output::OutputPlan;
 
 #[derive(Debug, Args)]
 pub struct CombineArgs {
@@ -81,7 +81,8 @@ pub fn run(args: CombineArgs) -> Result<()> {
         .map(|s| InputSpec::parse(s))
         .collect::<Result<Vec<_>>>()?;
     let inputs: Vec<PathBuf> = specs.iter().map(|s| s.path.clone()).collect();
-    crate::output::check_not_input(&args.out, &inputs)?;
+    let mut plan = OutputPlan::new(&inputs);
+    let slot = plan.add(&args.out)?;
     let mut terms = Vec::with_capacity(specs.len());
     for s in &specs {
         let reader = CubeReader::open(&s.path)?;
@@ -139,17 +140,16 @@ pub fn run(args: CombineArgs) -> Result<()> {
         grid: first.grid.clone(),
         orbital_numbers: None,
     };
-    let mut out = OutputFile::create(&args.out, &inputs)?;
+    let mut out = plan.open()?;
     {
-        let mut sink = CubeSink::new(out.file(), &args.out);
+        let mut sink = CubeSink::new(out.writer(slot), &args.out);
         write_weighted_sum(&header, &mut terms, &mut sink)?;
         sink.finish()?;
     }
-    out.commit()?;
+    let written = out.commit()?.remove(0);
     let [nx, ny, nz] = header.grid.counts;
     super::common::print_out(&format!(
-        "wrote {}: {what} on {nx}×{ny}×{nz} points\n",
-        args.out.display()
+        "wrote {written}: {what} on {nx}×{ny}×{nz} points\n"
     ))
 }
 

@@ -43,11 +43,17 @@ pub fn length(value: f64, unit: LengthUnit) -> f64 {
     unit.to_bohr(value)
 }
 
-/// Writes to standard output; a closed pipe (`lobecast … | head`) ends the output
-/// quietly instead of panicking as `println!` would.
+/// Writes a report to standard output (to standard error while an output file goes
+/// to standard output, so the data stays clean); a closed pipe (`lobecast … | head`)
+/// ends the output quietly instead of panicking as `println!` would.
 pub fn print_out(text: &str) -> Result<()> {
     use std::io::Write;
-    match std::io::stdout().lock().write_all(text.as_bytes()) {
+    let written = if crate::output::stdout_taken() {
+        std::io::stderr().lock().write_all(text.as_bytes())
+    } else {
+        std::io::stdout().lock().write_all(text.as_bytes())
+    };
+    match written {
         Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => Err(crate::Error::internal(
             format!("cannot write to standard output: {e}"),
         )),

@@ -14,7 +14,7 @@ use crate::chem::{LengthUnit, Molecule};
 use crate::error::{Error, Result};
 use crate::field::buildup;
 use crate::model::{Method, Model};
-use crate::output::{check_not_input, write_bytes};
+use crate::output::OutputPlan;
 use crate::solve::curve::{self, ZetaChoice};
 use crate::solve::one_electron::MINIMAL_BASIS_CAVEAT;
 
@@ -94,20 +94,25 @@ pub fn run(args: CurveArgs) -> Result<()> {
         length(args.to, args.units),
         length(args.step, args.units),
     )?;
-    let pngs = args
-        .png
-        .as_ref()
-        .map(|p| (p.clone(), suffixed(p, "integrals")));
-    let extra = args.png.as_ref().map(|p| suffixed(p, "buildup"));
-    for path in [&args.csv, &args.json, &extra]
-        .into_iter()
-        .flatten()
-        .chain(pngs.iter().flat_map(|(a, b)| [a, b]))
-    {
-        check_not_input(path, &model.inputs)?;
-    }
     let (a, b) = (&molecule.atoms[0], &molecule.atoms[1]);
     let closed_form = spec.is_slater_1s() && a.element == b.element;
+    if args.png.is_some() && !closed_form && args.states < 2 {
+        return Err(Error::input("--png needs at least two states (--states 2)"));
+    }
+    // Every output is checked before the scan; the integral chart exists only for
+    // the closed form and the build-up chart only with --buildup.
+    let mut plan = OutputPlan::new(&model.inputs);
+    let csv = plan.add_opt(args.csv.as_deref(), false)?;
+    let json = plan.add_opt(args.json.as_deref(), false)?;
+    let energy_png = plan.add_opt(args.png.as_deref(), true)?;
+    let integrals_png = match &args.png {
+        Some(p) if closed_form => Some(plan.add_binary(&suffixed(p, "integrals"))?),
+        _ => None,
+    };
+    let buildup_png = match &args.png {
+        Some(p) if args.buildup => Some(plan.add_binary(&suffixed(p, "buildup"))?),
+        _ => None,
+    };
     if args.optimize_zeta && !closed_form {
         return Err(Error::input(
             "--optimize-zeta works with the slater-1s set on two identical atoms",
@@ -174,40 +179,31 @@ pub fn run(args: CurveArgs) -> Result<()> {
     if doc.minimal_basis {
         print_notes(&[MINIMAL_BASIS_CAVEAT.to_string()])?;
     }
-    if let Some(path) = &args.csv {
-        write_bytes(path, &model.inputs, doc.csv.as_bytes())?;
-        eprintln!("wrote {}", path.display());
+    let mut files = Vec::new();
+    if let Some(slot) = csv {
+        files.push((slot, doc.csv.into_bytes()));
     }
-    if let Some(path) = &args.json {
-        write_bytes(path, &model.inputs, doc.json.as_bytes())?;
-        eprintln!("wrote {}", path.display());
+    if let Some(slot) = json {
+        files.push((slot, doc.json.into_bytes()));
     }
-    if let Some((energy_png, integrals_png)) = &pngs {
-        let data =
-            chart.ok_or_else(|| Error::input("--png needs at least two states (--states 2)"))?;
-        write_bytes(
-            energy_png,
-            &model.inputs,
-            &crate::plot::curve::energies(&data)?.encode_png(),
-        )?;
-        eprintln!("wrote {}", energy_png.display());
-        if closed_form {
-            write_bytes(
-                integrals_png,
-                &model.inputs,
-                &crate::plot::curve::integrals(&data)?.encode_png(),
-            )?;
-            eprintln!("wrote {}", integrals_png.display());
+    if let Some(slot) = energy_png {
+        let data = chart
+            .as_ref()
+            .ok_or_else(|| Error::input("--png needs at least two states (--states 2)"))?;
+        files.push((slot, crate::plot::curve::energies(data)?.encode_png()));
+        if let Some(slot) = integrals_png {
+            files.push((slot, crate::plot::curve::integrals(data)?.encode_png()));
         }
-        if let Some(b) = &buildups {
-            let path = suffixed(energy_png, "buildup");
-            write_bytes(
-                &path,
-                &model.inputs,
-                &charts::buildup(&model, &rs, b)?.encode_png(),
-            )?;
-            eprintln!("wrote {}", path.display());
+        if let (Some(slot), Some(b)) = (buildup_png, &buildups) {
+            files.push((slot, charts::buildup(&model, &rs, b)?.encode_png()));
         }
+    }
+    let mut out = plan.open()?;
+    for (slot, bytes) in &files {
+        out.put(*slot, bytes)?;
+    }
+    for name in out.commit()? {
+        say!("wrote {name}");
     }
     Ok(())
 }

@@ -18,6 +18,8 @@ use clap::{Parser, Subcommand};
 
 use crate::error::{Error, Kind};
 
+type Result<T, E> = std::result::Result<T, E>;
+
 #[derive(Debug, Parser)]
 #[command(
     name = "lobecast",
@@ -56,7 +58,7 @@ enum Command {
 
 /// Runs the program on the process arguments and returns the exit status.
 pub fn main() -> i32 {
-    let cli = match Cli::try_parse() {
+    let cli = match parse(std::env::args_os()) {
         Ok(cli) => cli,
         Err(e) => return clap_exit(e),
     };
@@ -76,6 +78,28 @@ pub fn main() -> i32 {
     }
 }
 
+/// Parses the arguments. Every option that takes a value accepts a negative number
+/// (`--extent -5`), so that the command can say why the value is wrong instead of
+/// clap calling it an unknown flag.
+fn parse<I, T>(args: I) -> Result<Cli, clap::Error>
+where
+    I: IntoIterator<Item = T>,
+    T: Into<std::ffi::OsString> + Clone,
+{
+    use clap::{CommandFactory, FromArgMatches};
+    let command = Cli::command().mut_subcommands(|sub| {
+        sub.mut_args(|a| {
+            if a.get_action().takes_values() {
+                a.allow_negative_numbers(true)
+            } else {
+                a
+            }
+        })
+    });
+    let matches = command.try_get_matches_from(args)?;
+    Cli::from_arg_matches(&matches)
+}
+
 /// Prints `error: …` (and `hint: …`) on standard error and returns the exit status.
 pub fn report(e: &Error) -> i32 {
     eprintln!("error: {}", e.message);
@@ -88,8 +112,10 @@ pub fn report(e: &Error) -> i32 {
     }
 }
 
-/// Help and version go to standard output with status 0; usage errors are cut to
-/// the one-line `error:` form with a hint, status 2.
+/// Help and version go to standard output with status 0; `lobecast` alone prints
+/// the help with status 2. Usage errors become one `error:` line that keeps clap's
+/// whole message (every missing argument, the offending value), with clap's tip
+/// and the command's usage line as hints; status 2.
 fn clap_exit(e: clap::Error) -> i32 {
     use clap::error::ErrorKind as K;
     match e.kind() {
@@ -97,14 +123,96 @@ fn clap_exit(e: clap::Error) -> i32 {
             print!("{e}");
             0
         }
-        _ => {
-            let text = e.render().to_string();
-            let first = text.lines().next().unwrap_or("error: bad usage");
-            let message = first.strip_prefix("error: ").unwrap_or(first).to_string();
-            report(
-                &Error::input(message)
-                    .with_hint("run 'lobecast --help' or 'lobecast COMMAND --help' for usage"),
-            )
+        K::DisplayHelpOnMissingArgumentOrSubcommand => {
+            print!("{e}");
+            2
         }
+        _ => {
+            let (message, hints) = one_line(&e.render().to_string());
+            let hint = if hints.is_empty() {
+                "run 'lobecast --help' or 'lobecast COMMAND --help' for usage".to_string()
+            } else {
+                hints.join("; ")
+            };
+            report(&Error::input(message).with_hint(hint))
+        }
+    }
+}
+
+/// Folds clap's rendered error (a first line, indented continuation lines, a blank
+/// line, `tip:` lines and a `Usage:` line) into one message and a list of hints.
+fn one_line(text: &str) -> (String, Vec<String>) {
+    let mut message = String::new();
+    let mut hints = Vec::new();
+    let mut in_first_paragraph = true;
+    for line in text.lines() {
+        let t = line.trim();
+        if t.is_empty() {
+            in_first_paragraph = false;
+            continue;
+        }
+        if let Some(tip) = t.strip_prefix("tip: ") {
+            hints.push(tip.to_string());
+        } else if let Some(usage) = t.strip_prefix("Usage: ") {
+            hints.push(format!("usage: {usage}"));
+        } else if t.starts_with("For more information") {
+            continue;
+        } else if in_first_paragraph {
+            let t = t.strip_prefix("error: ").unwrap_or(t);
+            if message.is_empty() {
+                message = t.to_string();
+            } else {
+                let sep = if message.ends_with(':') { " " } else { ", " };
+                message.push_str(sep);
+                message.push_str(t);
+            }
+        }
+    }
+    if message.is_empty() {
+        message = "bad usage".into();
+    }
+    (message, hints)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // The layout below is clap's rendered error (common practice for clap 4).
+    #[test]
+    fn missing_arguments_are_all_named_on_one_line() {
+        let text = "error: the following required arguments were not provided:\n  --from <FROM>\n  --to <TO>\n\nUsage: lobecast curve --from <FROM> --to <TO> <MODEL>\n\nFor more information, try '--help'.\n";
+        let (m, h) = one_line(text);
+        assert_eq!(
+            m,
+            "the following required arguments were not provided: --from <FROM>, --to <TO>"
+        );
+        assert_eq!(
+            h,
+            vec!["usage: lobecast curve --from <FROM> --to <TO> <MODEL>"]
+        );
+    }
+
+    #[test]
+    fn real_clap_errors_keep_their_detail() {
+        let e = parse(["lobecast", "curve", "m.toml"]).unwrap_err();
+        let (m, _) = one_line(&e.render().to_string());
+        assert!(
+            m.contains("--from") && m.contains("--to") && m.contains("--step"),
+            "{m}"
+        );
+        let e = parse(["lobecast", "volume", "m.toml", "--bogus"]).unwrap_err();
+        let (m, h) = one_line(&e.render().to_string());
+        assert!(m.contains("--bogus"), "{m}");
+        assert!(!h.is_empty());
+    }
+
+    #[test]
+    fn negative_numbers_are_values() {
+        let cli = parse([
+            "lobecast", "volume", "m.toml", "--field", "density", "--out", "x.cube", "--points",
+            "-5",
+        ]);
+        assert!(cli.is_ok(), "-5 must reach the command as a value");
     }
 }

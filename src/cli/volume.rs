@@ -13,7 +13,7 @@ use crate::cube::{CubeAtom, CubeHeader, write_streaming};
 use crate::error::{Error, Result};
 use crate::field::{Field, FieldSampler};
 use crate::grid::{GridBox, Resolution};
-use crate::output::OutputFile;
+use crate::output::OutputPlan;
 use crate::solve::orbitals_for;
 
 /// Default box padding around the outermost nuclei (bohr).
@@ -32,14 +32,16 @@ pub struct VolumeArgs {
     /// homo-1, lumo+1, …), density, or deformation (against neutral spherical atoms)
     #[arg(long = "field", required = true, value_name = "FIELD")]
     pub fields: Vec<String>,
-    /// Distance between grid points (in --units) [default: 0.15 bohr]
-    #[arg(long, conflicts_with = "points", allow_negative_numbers = true)]
+    /// Distance between grid points, in --units [default: 0.15 bohr, which is 0.0794 Å]
+    #[arg(long, conflicts_with = "points", value_name = "LENGTH")]
     pub spacing: Option<f64>,
-    /// Number of points along the longest edge of the box, instead of --spacing
-    #[arg(long)]
-    pub points: Option<usize>,
-    /// Space between the outermost nuclei and the box faces (in --units) [default: 5 bohr]
-    #[arg(long, allow_negative_numbers = true)]
+    /// Exactly N points along the longest edge of the box (2 to 10000), instead of
+    /// --spacing; the other edges get as many as the same spacing needs
+    #[arg(long, value_name = "N")]
+    pub points: Option<i64>,
+    /// Space between the outermost nuclei and the box faces, in --units
+    /// [default: 5 bohr, which is 2.646 Å]
+    #[arg(long, value_name = "LENGTH")]
     pub padding: Option<f64>,
     /// Unit of --spacing and --padding
     #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
@@ -60,14 +62,16 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         .map(|f| Field::parse(f))
         .collect::<Result<Vec<_>>>()?;
     let model = load_model_with(&args.model, &args.xyz)?;
-    crate::output::check_not_input(&args.out, &model.inputs)?;
+    let mut plan = OutputPlan::new(&model.inputs);
+    let slot = plan.add(&args.out)?;
+    check_lengths(&args)?;
     let set = orbitals_for(&model)?;
     let sampler = FieldSampler::new(&set, &fields)?;
     let padding = args
         .padding
         .map_or(DEFAULT_PADDING_BOHR, |p| length(p, args.units));
     let resolution = match (args.spacing, args.points) {
-        (_, Some(n)) => Resolution::Points(n),
+        (_, Some(n)) => Resolution::Points(points_count(n)?),
         (Some(h), None) => Resolution::Spacing(length(h, args.units)),
         (None, None) => Resolution::Spacing(DEFAULT_SPACING_BOHR),
     };
@@ -121,10 +125,10 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         ))
         .with_hint("use a coarser --spacing, fewer --points, or raise --max-bytes"));
     }
-    let mut out = OutputFile::create(&args.out, &model.inputs)?;
+    let mut out = plan.open()?;
     let bar = progress_bar(&grid);
     {
-        let mut w = CubeSink::new(out.file(), &args.out);
+        let mut w = CubeSink::new(out.writer(slot), &args.out);
         write_streaming(
             &header,
             |s, v| sampler.evaluate_slab(s, v),
@@ -134,11 +138,11 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         w.finish()?;
     }
     bar.finish_and_clear();
-    out.commit()?;
+    let written = out.commit()?.remove(0);
     let [nx, ny, nz] = grid.counts;
     say!(
         "wrote {}: {} field(s), {nx}×{ny}×{nz} points at {:.6} bohr spacing, {:.1} MB, in {:.2} s",
-        args.out.display(),
+        written,
         fields.len(),
         grid.axes[0][0],
         bytes as f64 / 1e6,
@@ -148,6 +152,38 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         say!("  {d}");
     }
     print_notes(&set.notes)?;
+    Ok(())
+}
+
+/// Largest `--points`: 10000³ points is far beyond any cube a viewer opens.
+pub const MAX_POINTS_PER_EDGE: i64 = 10_000;
+
+fn points_count(n: i64) -> Result<usize> {
+    if !(2..=MAX_POINTS_PER_EDGE).contains(&n) {
+        return Err(Error::input(format!(
+            "--points {n} is outside the accepted range 2 to {MAX_POINTS_PER_EDGE}"
+        )));
+    }
+    Ok(n as usize)
+}
+
+/// Refuses bad lengths in the unit the user typed them in, before any work.
+fn check_lengths(args: &VolumeArgs) -> Result<()> {
+    let unit = args.units.symbol();
+    if let Some(h) = args.spacing {
+        if !(h.is_finite() && h > 0.0) {
+            return Err(Error::input(format!(
+                "--spacing must be a positive length, got {h} {unit}"
+            )));
+        }
+    }
+    if let Some(p) = args.padding {
+        if !(p.is_finite() && p >= 0.0) {
+            return Err(Error::input(format!(
+                "--padding must be zero or a positive length, got {p} {unit}"
+            )));
+        }
+    }
     Ok(())
 }
 

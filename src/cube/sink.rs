@@ -1,7 +1,6 @@
 //! Where cube text goes: a plain buffered file, or gzip when the destination's name
 //! ends in `.gz`. Kept apart so every writer of cube files gets compression alike.
 
-use std::fs::File;
 use std::io::{BufWriter, Write};
 use std::path::Path;
 
@@ -11,8 +10,8 @@ use crate::error::{Error, Result};
 
 /// A destination for cube text; call `finish` to complete the gzip stream.
 pub enum CubeSink<'a> {
-    Plain(BufWriter<&'a mut File>),
-    Gzip(GzEncoder<BufWriter<&'a mut File>>),
+    Plain(BufWriter<&'a mut dyn Write>),
+    Gzip(GzEncoder<BufWriter<&'a mut dyn Write>>),
 }
 
 /// True for names that ask for gzip compression.
@@ -24,7 +23,7 @@ pub fn wants_gzip(path: &Path) -> bool {
 impl<'a> CubeSink<'a> {
     /// Gzip at level 1: cube text still shrinks about threefold, and higher levels
     /// cost several times the time of formatting the numbers.
-    pub fn new(file: &'a mut File, dest: &Path) -> Self {
+    pub fn new(file: &'a mut dyn Write, dest: &Path) -> Self {
         let w = BufWriter::with_capacity(1 << 20, file);
         if wants_gzip(dest) {
             CubeSink::Gzip(GzEncoder::new(w, flate2::Compression::fast()))

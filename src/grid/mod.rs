@@ -51,7 +51,11 @@ impl GridBox {
                     "the spacing must be positive, got {h}"
                 )));
             }
-            Resolution::Points(n) if n >= 2 && longest > 0.0 => longest / (n - 1) as f64,
+            // Rounded up to the header's six decimals so that n points still span
+            // the longest edge; that edge is then given exactly n points below.
+            Resolution::Points(n) if n >= 2 && longest > 0.0 => {
+                ((longest / (n - 1) as f64) * 1e6).ceil() / 1e6
+            }
             Resolution::Points(n) => {
                 return Err(Error::input(format!(
                     "--points needs at least 2 points and a box of non-zero size (got {n} points, longest edge {longest} bohr)"
@@ -64,8 +68,12 @@ impl GridBox {
         let mut counts = [1usize; 3];
         let mut origin = [0.0; 3];
         let mut total: f64 = 1.0;
+        let long_axis = (0..3).fold(0, |best, d| if extent[d] > extent[best] { d } else { best });
         for d in 0..3 {
-            let n = (extent[d] / h - 1e-9).ceil().max(0.0) + 1.0;
+            let n = match resolution {
+                Resolution::Points(n) if d == long_axis => n as f64,
+                _ => (extent[d] / h - 1e-9).ceil().max(0.0) + 1.0,
+            };
             total *= n;
             counts[d] = n as usize;
             let centre = 0.5 * (lo[d] + hi[d]);
@@ -158,5 +166,52 @@ mod tests {
         assert!(GridBox::around(&m, 5.0, Resolution::Spacing(0.0)).is_err());
         let g = GridBox::around(&m, 5.0, Resolution::Points(61)).unwrap();
         assert_eq!(g.counts[2], 61);
+    }
+
+    /// `--points N` puts exactly N points on the longest edge, whatever N and box
+    /// (issue: 2 gave 2×3×2 and 100 gave 74×101×99). Exactness is the documented
+    /// contract (common practice), checked over many N and box shapes.
+    #[test]
+    fn points_gives_exactly_n_on_the_longest_edge() {
+        let mol = |atoms: &[(&str, [f64; 3])]| {
+            let atoms = atoms
+                .iter()
+                .map(|(s, p)| Atom {
+                    element: by_symbol(s).unwrap(),
+                    position: *p,
+                })
+                .collect();
+            Molecule::new(atoms, 0).unwrap()
+        };
+        for (coords, pad) in [("H2", 5.0), ("H2O", 3.0), ("CO", 0.5)] {
+            let m = match coords {
+                "H2" => mol(&[("H", [0.0, 0.0, 0.0]), ("H", [0.0, 0.0, 1.4])]),
+                "H2O" => mol(&[
+                    ("O", [0.0, 0.0, 0.2217]),
+                    ("H", [0.0, 1.4309, -0.8867]),
+                    ("H", [0.0, -1.4309, -0.8867]),
+                ]),
+                _ => mol(&[("C", [0.0, 0.0, 0.0]), ("O", [0.0, 0.0, 2.1316])]),
+            };
+            for n in [2, 3, 7, 50, 100, 101, 257, 1000] {
+                let g = GridBox::around(&m, pad, Resolution::Points(n)).unwrap();
+                assert_eq!(
+                    *g.counts.iter().max().unwrap(),
+                    n,
+                    "{coords} n={n}: {:?}",
+                    g.counts
+                );
+                let h = g.axes[0][0];
+                let (lo, hi) = m.bounds();
+                for d in 0..3 {
+                    // Every edge still covers the nuclei plus padding.
+                    let span = (g.counts[d] - 1) as f64 * h;
+                    assert!(
+                        span + 1e-9 >= hi[d] - lo[d] + 2.0 * pad,
+                        "{coords} n={n} d={d}"
+                    );
+                }
+            }
+        }
     }
 }
