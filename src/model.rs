@@ -92,8 +92,10 @@ impl Method {
         match text.trim().to_ascii_lowercase().as_str() {
             "extended-huckel" | "extended-hückel" => Ok(Method::ExtendedHuckel),
             "one-electron" => Ok(Method::OneElectron),
+            // Only extended Hückel works on an XYZ file (the only place --method is
+            // read): one-electron needs a basis, which only a model file gives.
             _ => Err(Error::input(format!("unknown method {text:?}"))
-                .with_hint("methods for an XYZ file: extended-huckel, one-electron")),
+                .with_hint("the method for an XYZ file: extended-huckel")),
         }
     }
 }
@@ -188,6 +190,8 @@ fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
         .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
     match method {
         Method::ExtendedHuckel => {
+            huckel_coverage(&molecule)
+                .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
             let huckel = HuckelOptions::default();
             let basis = valence_basis(&molecule, &huckel)?.basis;
             Ok(Model {
@@ -205,6 +209,30 @@ fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
             "{name}: an XYZ file needs --method extended-huckel (other methods need a basis: use a model file)"
         ))),
     }
+}
+
+/// Extended Hückel here has s and p valence shells with n ≤ 3, so it treats H–Ar
+/// only (built-in parameters: H, Li–F, Na–Cl; overrides may add He, Ne, Ar). Heavier
+/// elements need d shells and a ghost centre has no valence electrons: refused here
+/// with that reason rather than given wrong valence counts.
+fn huckel_coverage(molecule: &Molecule) -> Result<()> {
+    if let Some((i, a)) = molecule
+        .atoms
+        .iter()
+        .enumerate()
+        .find(|(_, a)| !(1..=18).contains(&a.element.atomic_number))
+    {
+        return Err(Error::input(format!(
+            "atom {} is {} ({}): extended Hückel covers H–Ar only (s and p valence shells; built-in parameters for H, Li–F, Na–Cl)",
+            i + 1,
+            a.element.symbol,
+            a.element.name
+        ))
+        .with_hint(
+            "for heavier elements bring the orbitals from another program in an orbital file",
+        ));
+    }
+    Ok(())
 }
 
 /// Parses model text; `path` names the file in errors and anchors relative paths.
@@ -286,9 +314,9 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
             .map(|(i, a)| {
                 let element = elements::by_symbol(&a.element).ok_or_else(|| {
                     Error::input(format!(
-                        "{name}: atom {} has unknown element {:?}",
+                        "{name}: atom {}: {}",
                         i + 1,
-                        a.element
+                        elements::unknown_symbol(&a.element)
                     ))
                 })?;
                 Ok(Atom {
@@ -310,8 +338,13 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
             frame.atoms
         }
     };
+    crate::chem::molecule::check_separations(&atoms, |_| String::new())
+        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
     let molecule = Molecule::new(atoms, m.charge)
         .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    if huckel.is_some() {
+        huckel_coverage(&molecule).map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    }
     let basis = match (&spec, &huckel) {
         (Some(spec), _) => spec.build(&molecule)?,
         (None, Some(h)) => valence_basis(&molecule, h)?.basis,
@@ -412,5 +445,34 @@ mod huckel_tests {
         )
         .unwrap_err();
         assert!(e.message.contains("Xx"), "{}", e.message);
+    }
+
+    /// Iron is an element (read from any file) but not one extended Hückel treats
+    /// here, even with overrides: the error says which elements the method covers.
+    #[test]
+    fn extended_huckel_names_its_coverage() {
+        let text = EHT
+            .replace("\"Ne\"", "\"Fe\"")
+            .replace("parameters.ne", "parameters.fe");
+        let e = parse(&text, Path::new("m.toml")).unwrap_err();
+        assert!(
+            e.message.contains("Fe (iron)") && e.message.contains("covers H–Ar"),
+            "{}",
+            e.message
+        );
+        let e = Method::parse("one-electorn").unwrap_err();
+        assert_eq!(
+            e.hint.as_deref(),
+            Some("the method for an XYZ file: extended-huckel"),
+            "the hint lists only what an XYZ file accepts"
+        );
+        let e = parse(
+            &EHT.replace("position = [0, 0, 1.5]", "position = [0, 0, 0.05]"),
+            Path::new("m.toml"),
+        )
+        .unwrap_err();
+        assert!(e.message.contains("0.0500 Å apart"), "{}", e.message);
+        let e = parse(&EHT.replace("\"Ne\"", "\"Qq\""), Path::new("m.toml")).unwrap_err();
+        assert!(e.message.contains("H–Og"), "{}", e.message);
     }
 }

@@ -15,6 +15,15 @@ use crate::error::{Error, Result};
 pub const FORMAT: &str = "lobecast-orbitals";
 pub const VERSION: u32 = 1;
 
+/// The most basis functions a file may have (documented in the README). The overlap
+/// matrix and its products are dense n × n: 10 000 functions need 0.8 GB per matrix
+/// and about 5·10⁷ function pairs of integrals, the most a laptop run should take.
+pub const MAX_BASIS_FUNCTIONS: usize = 10_000;
+
+/// ⟨ψ|ψ⟩ further than this from 1 is reported (a `warning:`; the orbital is used as
+/// given, so densities scale with it).
+pub const NORM_TOLERANCE: f64 = 1e-6;
+
 #[derive(Debug, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 struct Doc {
@@ -131,7 +140,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         let element = elements::by_symbol(&a.element).ok_or_else(|| {
             bad(
                 format!("atoms[{i}].element"),
-                format!("unknown element {:?}", a.element),
+                elements::unknown_symbol(&a.element),
             )
         })?;
         if element.atomic_number != a.atomic_number {
@@ -150,6 +159,34 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             element,
             position: a.position.map(|x| x * length),
         });
+    }
+    elements_check(&atoms).map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    let nbf = doc.basis.len();
+    let estimate =
+        8.0 * (2.0 * (nbf as f64).powi(2) + 2.0 * (doc.orbitals.len() as f64) * nbf as f64);
+    if nbf > MAX_BASIS_FUNCTIONS {
+        return Err(bad(
+            "basis".into(),
+            format!(
+                "{nbf} functions is over the limit of {MAX_BASIS_FUNCTIONS}: the overlap matrix and its products would need about {} of memory",
+                crate::budget::show_bytes(estimate)
+            ),
+        ));
+    }
+    crate::budget::check_memory(
+        estimate,
+        crate::budget::DEFAULT_MEMORY,
+        &format!("{name}: the overlap matrix of {nbf} functions and the orbitals"),
+    )?;
+    if doc.orbitals.len() > nbf {
+        return Err(bad(
+            "orbitals".into(),
+            format!(
+                "{} orbitals, but a basis of {nbf} functions holds at most {nbf} independent orbitals ({} electrons, 2 per function)",
+                doc.orbitals.len(),
+                2 * nbf
+            ),
+        ));
     }
     let shells = basis_shells(&doc.basis, &atoms, length).map_err(|(f, m)| bad(f, m))?;
     let basis = Basis {
@@ -180,6 +217,12 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
                 format!("must be between 0 and 2, found {}", o.occupation),
             ));
         }
+        if o.coefficients.iter().all(|&c| c == 0.0) {
+            return Err(bad(
+                format!("orbitals[{i}].coefficients"),
+                "all zero: an orbital must not vanish everywhere".into(),
+            ));
+        }
         orbitals.push(Orbital {
             energy: o.energy * energy,
             occupation: o.occupation,
@@ -189,12 +232,17 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     if orbitals.is_empty() {
         return Err(bad("orbitals".into(), "the file holds no orbitals".into()));
     }
-    let mut notes = doc.notes.clone();
-    if orbitals.windows(2).any(|w| w[1].energy < w[0].energy) {
-        orbitals.sort_by(|a, b| a.energy.total_cmp(&b.energy));
-        notes.push("the orbitals were renumbered in increasing energy".into());
-    }
     let electrons: f64 = orbitals.iter().map(|o| o.occupation).sum();
+    let occupied = orbitals.iter().filter(|o| o.occupation > 0.0).count();
+    if occupied > nbf || electrons > 2.0 * nbf as f64 + 1e-9 {
+        return Err(bad(
+            "orbitals".into(),
+            format!(
+                "{occupied} occupied orbitals with {electrons} electrons, but a basis of {nbf} functions holds at most {nbf} orbitals and {} electrons (2 per function)",
+                2 * nbf
+            ),
+        ));
+    }
     let reference = doc.reference_occupations.clone();
     if let Some(r) = &reference {
         if r.len() != basis.len() || r.iter().any(|v| !(v.is_finite() && *v >= 0.0)) {
@@ -213,9 +261,32 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         Some(r) => r.iter().sum(),
         None => atoms.iter().map(Atom::charge).sum(),
     };
-    let molecule = Molecule::new(atoms, (nuclear - electrons).round() as i32)
+    // Version 1 states no charge: it is inferred from the occupations, and shown in
+    // titles only when they add up to a whole number of electrons.
+    let mut molecule = Molecule::new(atoms, (nuclear - electrons).round() as i32)
         .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
-    let overlap = crate::integrals::overlap_matrix(&molecule, &basis);
+    molecule.charge_known = (electrons - electrons.round()).abs() <= 1e-6;
+    let overlap = overlap_for(&molecule, &basis);
+    match &overlap {
+        Some(s) => {
+            if let Some(w) = norm_warning(s, &orbitals).map_err(|(i, n)| {
+                bad(
+                    format!("orbitals[{i}].coefficients"),
+                    format!("⟨ψ|ψ⟩ = {n:.3e}: the orbital vanishes (numerically zero)"),
+                )
+            })? {
+                eprintln!("warning: {name}: {w}");
+            }
+        }
+        None => eprintln!(
+            "note: {name}: lobecast has no overlap integrals for this basis (it mixes Slater and Gaussian functions, or has Slater functions beyond s and p), so the orbitals' normalisation is not checked"
+        ),
+    }
+    let mut notes = doc.notes.clone();
+    if orbitals.windows(2).any(|w| w[1].energy < w[0].energy) {
+        orbitals.sort_by(|a, b| a.energy.total_cmp(&b.energy));
+        notes.push("the orbitals were renumbered in increasing energy".into());
+    }
     Ok(OrbitalSet {
         molecule,
         basis,
@@ -225,6 +296,55 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         notes,
         reference,
     })
+}
+
+/// Atoms closer than 0.1 Å are refused (ghost centres excepted), named by their
+/// index in the file.
+fn elements_check(atoms: &[Atom]) -> Result<()> {
+    crate::chem::molecule::check_separations(atoms, |i| format!(", atoms[{i}]"))
+}
+
+/// The overlap matrix where lobecast has the integrals: all-Gaussian bases, 1s Slater
+/// functions of equal exponents, and Slater s and p functions.
+fn overlap_for(molecule: &Molecule, basis: &Basis) -> Option<nalgebra::DMatrix<f64>> {
+    crate::integrals::overlap_matrix(molecule, basis).or_else(|| {
+        basis
+            .shells
+            .iter()
+            .all(|s| matches!(s, Shell::Slater(_)))
+            .then(|| crate::integrals::slater_overlap_matrix(basis).ok())
+            .flatten()
+    })
+}
+
+/// ⟨ψ|ψ⟩ = cᵀSc of every orbital (in file order). `Err((i, n))` for a vanishing
+/// orbital (n ≤ 1e-12); otherwise a warning naming the worst orbital when any is
+/// further than `NORM_TOLERANCE` from 1.
+pub fn norm_warning(
+    s: &nalgebra::DMatrix<f64>,
+    orbitals: &[Orbital],
+) -> std::result::Result<Option<String>, (usize, f64)> {
+    let mut worst: Option<(usize, f64)> = None;
+    let mut off = 0;
+    for (i, o) in orbitals.iter().enumerate() {
+        let c = nalgebra::DVector::from_column_slice(&o.coefficients);
+        let n = c.dot(&(s * &c));
+        if n.is_nan() || n <= 1e-12 {
+            return Err((i, n));
+        }
+        let d = (n - 1.0).abs();
+        if d > NORM_TOLERANCE {
+            off += 1;
+            if worst.is_none_or(|(_, w)| d > (w - 1.0).abs()) {
+                worst = Some((i, n));
+            }
+        }
+    }
+    Ok(worst.map(|(i, n)| {
+        format!(
+            "orbitals[{i}] has ⟨ψ|ψ⟩ = {n:.6} (the worst of {off} orbital(s) off 1 by more than {NORM_TOLERANCE:e}); the orbitals are used as given, so densities scale with ⟨ψ|ψ⟩"
+        )
+    }))
 }
 
 /// serde_json appends " at line L column C"; we print the position first instead.
