@@ -89,3 +89,88 @@ fn huge_orbital_offsets_are_refused() {
         assert_input_error(d.path(), &out, needle, &["h2.toml"]);
     }
 }
+
+/// The reported case: an XYZ file of 20 000 atoms made `solve` grow to 9 GB. 20 000
+/// hydrogen atoms on a 1.5 Å cubic lattice (no two closer than 0.1 Å) give 20 000
+/// valence functions, about 27 GiB by the estimate: refused before any matrix is
+/// built, with the estimate in GiB in the message.
+#[test]
+fn twenty_thousand_atoms_are_refused_with_the_estimate() {
+    let d = tempfile::tempdir().unwrap();
+    let mut xyz = String::from("20000\nhydrogen lattice\n");
+    for k in 0..20_000 {
+        let (i, j, l) = (k % 30, (k / 30) % 30, k / 900);
+        xyz += &format!(
+            "H {:.3} {:.3} {:.3}\n",
+            1.5 * i as f64,
+            1.5 * j as f64,
+            1.5 * l as f64
+        );
+    }
+    write(d.path(), "big.xyz", &xyz);
+    let out = run(
+        d.path(),
+        &[
+            "solve",
+            "big.xyz",
+            "--method",
+            "extended-huckel",
+            "--json",
+            "o.json",
+        ],
+    );
+    let err = assert_input_error(d.path(), &out, "GiB", &["big.xyz"]);
+    assert!(
+        err.contains("20000 basis functions") && err.contains("over the budget of 8.0 GiB"),
+        "{err}"
+    );
+    // A smaller budget refuses a small molecule too, naming the budget given.
+    write(d.path(), "h2.xyz", "2\nH2\nH 0 0 0\nH 0 0 0.74\n");
+    let out = run(
+        d.path(),
+        &[
+            "solve",
+            "h2.xyz",
+            "--method",
+            "extended-huckel",
+            "--memory",
+            "1",
+        ],
+    );
+    assert_input_error(d.path(), &out, "over the budget", &["big.xyz", "h2.xyz"]);
+    let out = run(
+        d.path(),
+        &[
+            "solve",
+            "h2.xyz",
+            "--method",
+            "extended-huckel",
+            "--memory",
+            "lots",
+        ],
+    );
+    assert_eq!(out.status.code(), Some(2));
+}
+
+/// The reported case: one Gaussian of 5 000 primitives took 16 s. Shells are
+/// limited to 100 primitives (documented in the README).
+#[test]
+fn a_five_thousand_primitive_shell_is_refused() {
+    let d = tempfile::tempdir().unwrap();
+    let prims: Vec<String> = (0..5000)
+        .map(|k| format!("[{}, 1.0]", 0.1 * 1.001f64.powi(k)))
+        .collect();
+    let model = format!(
+        "[molecule]\nunits = \"bohr\"\ncharge = 0\natoms = [{{ element = \"H\", position = [0, 0, 0] }}]\n\
+         [basis]\nset = \"custom\"\n[basis.shells]\nH = [{{ l = 0, primitives = [{}] }}]\n",
+        prims.join(", ")
+    );
+    write(d.path(), "wide.toml", &model);
+    let out = run(d.path(), &["solve", "wide.toml"]);
+    assert_input_error(
+        d.path(),
+        &out,
+        "1 to 100 primitives, this one has 5000",
+        &["wide.toml"],
+    );
+}
