@@ -37,6 +37,12 @@ pub struct GaussianShell {
     pub rows: Vec<Vec<f64>>,
 }
 
+/// Most primitives one contracted shell may have. Published contractions use at
+/// most a few dozen (common practice); the integral work of a shell pair grows as
+/// the product of their primitive counts, so a shell of thousands would make small
+/// inputs run for minutes.
+pub const MAX_PRIMITIVES: usize = 100;
+
 /// (2α/π)^(3/4) (4α)^(l/2): the α-dependent factor of a normalised Cartesian primitive.
 fn radial_norm(alpha: f64, l: u32) -> f64 {
     (2.0 * alpha / PI).powf(0.75) * (4.0 * alpha).powf(0.5 * l as f64)
@@ -68,6 +74,12 @@ impl GaussianShell {
             return Err(Error::input(
                 "a Gaussian function needs at least one primitive",
             ));
+        }
+        if primitives.len() > MAX_PRIMITIVES {
+            return Err(Error::input(format!(
+                "a Gaussian shell may have 1 to {MAX_PRIMITIVES} primitives, this one has {}",
+                primitives.len()
+            )));
         }
         for (a, c) in &primitives {
             if !(a.is_finite() && *a > 0.0) {

@@ -7,7 +7,7 @@ use clap::Args;
 use super::common::{XyzFlags, load_model_with, print_notes, print_out, say};
 use crate::chem::units::hartree_to_ev;
 use crate::error::Result;
-use crate::solve::{OrbitalSet, orbitals_for};
+use crate::solve::{OrbitalSet, orbitals_within};
 
 #[derive(Debug, Args)]
 pub struct SolveArgs {
@@ -18,6 +18,10 @@ pub struct SolveArgs {
     /// Write the orbitals as an orbital file (JSON, bohr and hartree)
     #[arg(long, value_name = "FILE")]
     pub json: Option<PathBuf>,
+    /// Memory budget (e.g. 512M, 8G): a solve estimated to need more is refused
+    /// before it starts
+    #[arg(long, value_name = "SIZE", default_value = crate::budget::DEFAULT_MEMORY_TEXT, value_parser = crate::budget::parse_size)]
+    pub memory: u64,
 }
 
 pub fn run(args: SolveArgs) -> Result<()> {
@@ -25,7 +29,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
     if let Some(path) = &args.json {
         crate::output::check_not_input(path, &model.inputs)?;
     }
-    let set = orbitals_for(&model)?;
+    let set = orbitals_within(&model, args.memory)?;
     // Extended-Hückel sets (solved now or read back from an orbital file) have no
     // total energy to speak of.
     if set.reference.is_some() || set.method.starts_with("extended Hückel") {

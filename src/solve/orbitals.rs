@@ -148,25 +148,88 @@ impl OrbitalSelector {
         }
         match t.parse::<usize>() {
             Ok(n) if n >= 1 => Ok(OrbitalSelector::Number(n)),
+            Ok(_) => Err(Error::input(format!(
+                "there is no orbital {text:?}: orbitals are numbered from 1 (lowest energy)"
+            ))),
             _ => Err(bad()),
         }
     }
 
-    /// Resolves to a 0-based index into `orbitals` (sorted by energy).
+    /// Resolves to a 0-based index into `orbitals` (sorted by energy). Offsets are
+    /// user numbers, so every step is checked: a selector past either end of the set
+    /// is an error naming the orbital it would be and the valid range, never a
+    /// wrapped index.
     pub fn resolve(self, orbitals: &[Orbital]) -> Result<usize> {
         let n = orbitals.len();
         let homo = orbitals.iter().rposition(|o| o.occupation > 1e-12);
-        let idx = match self {
-            OrbitalSelector::Number(k) => Some(k - 1),
-            OrbitalSelector::Homo(k) => homo.and_then(|h| h.checked_sub(k)),
-            OrbitalSelector::Lumo(k) => Some(homo.map_or(0, |h| h + 1) + k),
+        let range = if n == 0 {
+            String::from("the set has no orbitals")
+        } else {
+            format!(
+                "the set has {n} orbital{} (1 to {n})",
+                if n == 1 { "" } else { "s" }
+            )
         };
-        match idx {
-            Some(i) if i < n => Ok(i),
-            _ => Err(Error::input(format!(
-                "there is no orbital {self} here: the set holds {n} orbitals, numbered 1 to {n}"
-            ))),
+        let idx = match self {
+            OrbitalSelector::Number(0) => {
+                return Err(Error::input(format!(
+                    "there is no orbital 0: orbitals are numbered from 1 and {range}"
+                )));
+            }
+            OrbitalSelector::Number(k) => k - 1,
+            OrbitalSelector::Homo(k) => {
+                let Some(h) = homo else {
+                    return Err(Error::input(format!(
+                        "orbital:{self} needs an occupied orbital, but no orbital of this set is occupied ({range})"
+                    )));
+                };
+                match h.checked_sub(k) {
+                    Some(i) => i,
+                    None => {
+                        return Err(Error::input(format!(
+                            "orbital:{self} is below orbital 1: homo is orbital {} and {range}, so homo-K needs K from 0 to {h}",
+                            h + 1
+                        )));
+                    }
+                }
+            }
+            OrbitalSelector::Lumo(k) => {
+                let lumo = homo.map_or(0, |h| h + 1);
+                match lumo.checked_add(k) {
+                    Some(i) => i,
+                    None => {
+                        return Err(Error::input(format!(
+                            "orbital:{self} is past the last orbital: lumo is orbital {} and {range}",
+                            lumo + 1
+                        )));
+                    }
+                }
+            }
+        };
+        if idx < n {
+            return Ok(idx);
         }
+        let hint = match (self, homo) {
+            (OrbitalSelector::Lumo(_), h) if h.map_or(0, |h| h + 1) < n => {
+                let lumo = h.map_or(0, |h| h + 1);
+                format!(
+                    "; lumo is orbital {}, so lumo+K needs K from 0 to {}",
+                    lumo + 1,
+                    n - 1 - lumo
+                )
+            }
+            (OrbitalSelector::Lumo(_), _) => {
+                String::from("; every orbital is occupied, so there is no lumo")
+            }
+            _ => String::new(),
+        };
+        // A checked sum can still be usize::MAX, whose orbital number would not fit.
+        let number = idx
+            .checked_add(1)
+            .map_or_else(|| format!("{idx}+1"), |v| v.to_string());
+        Err(Error::input(format!(
+            "orbital:{self} is orbital {number} but {range}{hint}"
+        )))
     }
 }
 
@@ -228,6 +291,66 @@ mod tests {
         );
         assert!(OrbitalSelector::parse("0").is_err());
         assert!(OrbitalSelector::parse("homo+1").is_err());
+    }
+
+    /// Out-of-range selectors are errors naming the orbital and the valid range,
+    /// never a wrapped index (the reported case: lumo+18446744073709551615 gave the
+    /// HOMO).
+    #[test]
+    fn out_of_range_selectors_name_the_range() {
+        let o = orbs(&[2.0, 2.0, 2.0, 2.0, 0.0, 0.0, 0.0]);
+        let err = |s: &str| {
+            OrbitalSelector::parse(s)
+                .and_then(|sel| sel.resolve(&o))
+                .unwrap_err()
+                .message
+        };
+        let e = err("lumo+3");
+        assert_eq!(
+            e,
+            "orbital:lumo+3 is orbital 8 but the set has 7 orbitals (1 to 7); lumo is orbital 5, so lumo+K needs K from 0 to 2"
+        );
+        for huge in [
+            format!("lumo+{}", usize::MAX),
+            format!("lumo+{}", usize::MAX - 4),
+            format!("lumo+{}", usize::MAX - 5),
+        ] {
+            let e = err(&huge);
+            assert!(e.contains("the set has 7 orbitals (1 to 7)"), "{huge}: {e}");
+        }
+        let e = err("homo-4");
+        assert!(
+            e.contains("below orbital 1") && e.contains("K from 0 to 3"),
+            "{e}"
+        );
+        assert!(err(&format!("homo-{}", usize::MAX)).contains("below orbital 1"));
+        assert!(err("0").contains("numbered from 1"));
+        assert!(err("8").contains("is orbital 8 but the set has 7 orbitals"));
+        assert_eq!(
+            OrbitalSelector::parse("lumo+2")
+                .unwrap()
+                .resolve(&o)
+                .unwrap(),
+            6
+        );
+        let empty = orbs(&[0.0, 0.0]);
+        assert!(
+            OrbitalSelector::parse("homo")
+                .unwrap()
+                .resolve(&empty)
+                .unwrap_err()
+                .message
+                .contains("no orbital of this set is occupied")
+        );
+        let full = orbs(&[2.0, 2.0]);
+        assert!(
+            OrbitalSelector::parse("lumo")
+                .unwrap()
+                .resolve(&full)
+                .unwrap_err()
+                .message
+                .contains("no lumo")
+        );
     }
 
     #[test]
