@@ -71,7 +71,7 @@ fn bad_models_are_refused_with_the_reason() {
             "same.toml",
             &H2.replace("[0, 0, 1]", "[0, 0, -1]"),
             &["solve"],
-            "same place",
+            "closer than 0.1 Å",
         ),
         (
             "two.toml",
@@ -138,7 +138,7 @@ fn bad_flags_are_refused_before_anything_is_written() {
                 "--out",
                 "v.cube",
             ],
-            "no orbital 3",
+            "the set has 2 orbitals",
         ),
         (
             vec!["volume", "h2.toml", "--field", "orbit:1", "--out", "v.cube"],
