@@ -12,7 +12,7 @@ use crate::chem::units::bohr_to_angstrom;
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::grid::line::{Endpoint, Line};
-use crate::output::{check_not_input, write_bytes};
+use crate::output::OutputPlan;
 use crate::plot::profile::{Profile, Series, draw};
 use crate::render::Colour;
 use crate::render::text::formula_markup;
@@ -86,15 +86,19 @@ pub fn run(args: ProfileArgs) -> Result<()> {
     let to = Endpoint::parse(&args.to, args.units)?;
     let extend = parse_length(&args.extend, args.units)?;
     let source = Source::load(&args.source, &args.xyz.options()?)?;
-    for p in [&args.csv, &args.png].into_iter().flatten() {
-        check_not_input(p, source.inputs())?;
-    }
+    let mut plan = OutputPlan::new(source.inputs());
+    let csv_slot = plan.add_opt(args.csv.as_deref(), false)?;
+    let png_slot = plan.add_opt(args.png.as_deref(), true)?;
     let molecule = source.molecule();
     let line = Line::new(from.position(molecule)?, to.position(molecule)?, extend)?;
     let infos = fields
         .iter()
         .map(|f| source.info(f))
         .collect::<Result<Vec<_>>>()?;
+    if args.png.is_some() && infos.iter().any(|i| i.unit != infos[0].unit) {
+        return Err(Error::input("a profile chart needs fields of one unit")
+            .with_hint("draw orbitals and densities in separate charts"));
+    }
     let sampler = source.sampler(&fields)?;
     let s = line.distances(args.points);
     let points: Vec<[f64; 3]> = s.iter().map(|&d| line.point(d)).collect();
@@ -102,19 +106,12 @@ pub fn run(args: ProfileArgs) -> Result<()> {
     let mut values = vec![0.0; points.len() * nf];
     sampler.evaluate(&points, &mut values);
 
-    if let Some(path) = &args.csv {
-        write_bytes(
-            path,
-            source.inputs(),
-            csv(&args, &line, &s, &points, &values, &infos).as_bytes(),
-        )?;
-        eprintln!("wrote {}", path.display());
+    let mut files = Vec::new();
+    if let Some(slot) = csv_slot {
+        let text = csv(&args, &line, &s, &points, &values, &infos);
+        files.push((slot, text.into_bytes()));
     }
-    if let Some(path) = &args.png {
-        if infos.iter().any(|i| i.unit != infos[0].unit) {
-            return Err(Error::input("a profile chart needs fields of one unit")
-                .with_hint("draw orbitals and densities in separate charts"));
-        }
+    if let Some(slot) = png_slot {
         let columns: Vec<Vec<f64>> = (0..nf)
             .map(|k| values.iter().skip(k).step_by(nf).copied().collect())
             .collect();
@@ -175,8 +172,14 @@ pub fn run(args: ProfileArgs) -> Result<()> {
             width: args.size,
             background: Colour::WHITE,
         };
-        write_bytes(path, source.inputs(), &draw(&chart)?.encode_png())?;
-        eprintln!("wrote {}", path.display());
+        files.push((slot, draw(&chart)?.encode_png()));
+    }
+    let mut out = plan.open()?;
+    for (slot, bytes) in &files {
+        out.put(*slot, bytes)?;
+    }
+    for name in out.commit()? {
+        say!("wrote {name}");
     }
     say!(
         "profile of {} field(s) at {} points over {:.4} Å in {:.3} s",

@@ -12,7 +12,7 @@ use crate::chem::units::bohr_to_angstrom;
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::grid::plane::{Axis, PlaneSpec, Window};
-use crate::output::{check_not_input, write_bytes};
+use crate::output::OutputPlan;
 use crate::render::slice::{Contours, Figure, Nucleus, Panel, Style, render};
 use crate::render::text::formula_markup;
 use crate::render::{Colour, Scale};
@@ -117,7 +117,8 @@ pub fn run(args: SliceArgs) -> Result<()> {
         )));
     }
     let source = Source::load(&args.source, &args.xyz.options()?)?;
-    check_not_input(&args.png, source.inputs())?;
+    let mut plan = OutputPlan::new(source.inputs());
+    let png_slot = plan.add_binary(&args.png)?;
     let molecule = source.molecule();
     let plane = spec.resolve(molecule, args.up)?;
     let window = match &args.extent {
@@ -225,12 +226,14 @@ pub fn run(args: SliceArgs) -> Result<()> {
             .map(|k| all.iter().skip(k).step_by(nf).copied().collect())
             .collect()
     })?;
-    write_bytes(&args.png, source.inputs(), &rendered.canvas.encode_png())?;
+    let mut out = plan.open()?;
+    out.put(png_slot, &rendered.canvas.encode_png())?;
+    let written = out.commit()?.remove(0);
     let g = &rendered.grid;
     let samples = g.nx * g.ny * nf;
     say!(
         "wrote {}: {}×{} px; {} map(s) of {}×{} samples ({:.2} × {:.2} Å), evaluated in {:.3} s ({:.1} million samples/s); total {:.2} s",
-        args.png.display(),
+        written,
         rendered.canvas.width(),
         rendered.canvas.height(),
         nf,
