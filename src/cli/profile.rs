@@ -6,6 +6,7 @@ use std::time::Instant;
 use clap::Args;
 
 use super::common::{print_notes, say};
+use super::slice::parse_count;
 use super::source::Source;
 use crate::chem::LengthUnit;
 use crate::chem::units::bohr_to_angstrom;
@@ -17,30 +18,45 @@ use crate::plot::profile::{Profile, Series, draw};
 use crate::render::Colour;
 use crate::render::text::formula_markup;
 
+/// Accepted ranges of the count options (documented in README and `--help`). A chart
+/// is drawn 3× larger and shrunk, so 4000 px already means a 12000-px canvas.
+pub const MAX_POINTS: u64 = 1_000_000;
+pub const MAX_SIZE: u64 = 4000;
+pub const MAX_FIELDS: usize = 16;
+
 /// Nuclei closer than this to the line (bohr) are marked on the chart.
 pub const ON_LINE_BOHR: f64 = 0.05;
 
 #[derive(Debug, Args)]
 pub struct ProfileArgs {
-    /// Model file (.toml), orbital file (.json) or cube file (.cube, .cube.gz)
+    /// Model file (.toml), orbital file (.json), XYZ file (.xyz, with --method) or cube
+    /// file (.cube, .cube.gz)
     pub source: PathBuf,
     #[command(flatten)]
     pub xyz: super::common::XyzFlags,
-    /// Field to follow; repeat for several (one column and one line each)
+    /// Field to follow: orbital:N, orbital-density:N, orbital-deformation:N (N = number,
+    /// homo, lumo, …), density, deformation, or stored:K (the K-th field of a cube
+    /// file); repeat for several, 1 to 16 (one column and one line each)
     #[arg(long = "field", required = true, value_name = "FIELD")]
     pub fields: Vec<String>,
     /// Start: atom:N or x,y,z (in --units)
-    #[arg(long)]
+    #[arg(long, allow_hyphen_values = true)]
     pub from: String,
     /// End: atom:N or x,y,z (in --units)
-    #[arg(long)]
+    #[arg(long, allow_hyphen_values = true)]
     pub to: String,
-    /// Length added beyond both ends, e.g. 2, 2ang or 3.5bohr (a bare number is in --units)
-    #[arg(long, default_value = "0")]
+    /// Length added beyond both ends, zero or positive, e.g. 2, 2ang or 3.5bohr (a bare
+    /// number is in --units)
+    #[arg(long, default_value = "0", allow_hyphen_values = true)]
     pub extend: String,
-    /// Number of evenly spaced samples
-    #[arg(long, default_value_t = 401)]
-    pub points: usize,
+    /// Number of evenly spaced samples, 2 to 1000000
+    #[arg(
+        long,
+        value_name = "N",
+        default_value = "401",
+        allow_negative_numbers = true
+    )]
+    pub points: String,
     /// Unit of coordinates and of a bare --extend
     #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
     pub units: LengthUnit,
@@ -53,9 +69,14 @@ pub struct ProfileArgs {
     /// Title instead of the automatic one
     #[arg(long)]
     pub title: Option<String>,
-    /// Width of the chart in pixels
-    #[arg(long, default_value_t = 1000)]
-    pub size: u32,
+    /// Width of the chart in pixels, 200 to 4000
+    #[arg(
+        long,
+        value_name = "PIXELS",
+        default_value = "1000",
+        allow_negative_numbers = true
+    )]
+    pub size: String,
 }
 
 pub fn run(args: ProfileArgs) -> Result<()> {
@@ -65,16 +86,12 @@ pub fn run(args: ProfileArgs) -> Result<()> {
             "nothing to write: give --csv FILE and/or --png FILE",
         ));
     }
-    if !(2..=1_000_000).contains(&args.points) {
+    let points = parse_count("--points", &args.points, 2, MAX_POINTS)? as usize;
+    let size = parse_count("--size", &args.size, 200, MAX_SIZE)? as u32;
+    if args.fields.len() > MAX_FIELDS {
         return Err(Error::input(format!(
-            "--points must be between 2 and 1000000, got {}",
-            args.points
-        )));
-    }
-    if !(200..=10_000).contains(&args.size) {
-        return Err(Error::input(format!(
-            "--size must be between 200 and 10000 pixels, got {}",
-            args.size
+            "--field may be given 1 to {MAX_FIELDS} times, got {}",
+            args.fields.len()
         )));
     }
     let fields = args
@@ -84,7 +101,7 @@ pub fn run(args: ProfileArgs) -> Result<()> {
         .collect::<Result<Vec<_>>>()?;
     let from = Endpoint::parse(&args.from, args.units)?;
     let to = Endpoint::parse(&args.to, args.units)?;
-    let extend = parse_length(&args.extend, args.units)?;
+    let extend = parse_length("--extend", &args.extend, args.units)?;
     let source = Source::load(&args.source, &args.xyz.options()?)?;
     let mut plan = OutputPlan::new(source.inputs());
     let csv_slot = plan.add_opt(args.csv.as_deref(), false)?;
@@ -100,7 +117,7 @@ pub fn run(args: ProfileArgs) -> Result<()> {
             .with_hint("draw orbitals and densities in separate charts"));
     }
     let sampler = source.sampler(&fields)?;
-    let s = line.distances(args.points);
+    let s = line.distances(points);
     let points: Vec<[f64; 3]> = s.iter().map(|&d| line.point(d)).collect();
     let nf = fields.len();
     let mut values = vec![0.0; points.len() * nf];
@@ -169,7 +186,7 @@ pub fn run(args: ProfileArgs) -> Result<()> {
                 }
                 f
             },
-            width: args.size,
+            width: size,
             background: Colour::WHITE,
         };
         files.push((slot, draw(&chart)?.encode_png()));
@@ -192,8 +209,9 @@ pub fn run(args: ProfileArgs) -> Result<()> {
     Ok(())
 }
 
-/// A length with an optional unit suffix: "2", "2ang", "2Å", "3.5bohr".
-pub fn parse_length(text: &str, default: LengthUnit) -> Result<f64> {
+/// A length with an optional unit suffix: "2", "2ang", "2Å", "3.5bohr". `name` is the
+/// option, for messages; a negative length is read and then refused with its unit.
+pub fn parse_length(name: &str, text: &str, default: LengthUnit) -> Result<f64> {
     let t = text.trim().to_ascii_lowercase();
     let (num, unit) = if let Some(n) = t.strip_suffix("bohr") {
         (n, LengthUnit::Bohr)
@@ -205,15 +223,29 @@ pub fn parse_length(text: &str, default: LengthUnit) -> Result<f64> {
     } else {
         (t.as_str(), default)
     };
-    num.trim()
+    let v = num
+        .trim()
         .parse::<f64>()
         .ok()
-        .filter(|v| v.is_finite() && *v >= 0.0)
-        .map(|v| unit.to_bohr(v))
+        .filter(|v| v.is_finite())
         .ok_or_else(|| {
-            Error::input(format!("cannot read the length {text:?}"))
+            Error::input(format!("cannot read the length {name} {text:?}"))
                 .with_hint("give a number, optionally with ang or bohr, e.g. 2ang")
-        })
+        })?;
+    if v < 0.0 {
+        return Err(Error::input(format!(
+            "{name} must be zero or positive, got {v} {}",
+            unit.symbol()
+        )));
+    }
+    if unit.to_bohr(v) > LengthUnit::Angstrom.to_bohr(super::slice::MAX_EXTENT_ANGSTROM) {
+        return Err(Error::input(format!(
+            "{name} must be at most {} Å, got {v} {}",
+            super::slice::MAX_EXTENT_ANGSTROM,
+            unit.symbol()
+        )));
+    }
+    Ok(unit.to_bohr(v))
 }
 
 /// Numbers are written in Rust's shortest round-trip form, so reading them back
@@ -261,13 +293,15 @@ mod tests {
     #[test]
     fn lengths_take_suffixes() {
         let a = LengthUnit::Angstrom;
-        assert_eq!(parse_length("3bohr", a).unwrap(), 3.0);
+        let e = "--extend";
+        assert_eq!(parse_length(e, "3bohr", a).unwrap(), 3.0);
         assert_eq!(
-            parse_length("2ang", LengthUnit::Bohr).unwrap(),
+            parse_length(e, "2ang", LengthUnit::Bohr).unwrap(),
             a.to_bohr(2.0)
         );
-        assert_eq!(parse_length("2", a).unwrap(), a.to_bohr(2.0));
-        assert!(parse_length("-1", a).is_err());
-        assert!(parse_length("two", a).is_err());
+        assert_eq!(parse_length(e, "2", a).unwrap(), a.to_bohr(2.0));
+        let neg = parse_length(e, "-1", a).unwrap_err();
+        assert!(neg.message.contains("got -1 Å"), "{}", neg.message);
+        assert!(parse_length(e, "two", a).is_err());
     }
 }

@@ -7,6 +7,7 @@ use clap::{Args, ValueEnum};
 
 use super::common::{print_notes, say};
 use super::source::Source;
+use crate::budget::check_count;
 use crate::chem::LengthUnit;
 use crate::chem::units::bohr_to_angstrom;
 use crate::error::{Error, Result};
@@ -27,39 +28,57 @@ pub enum Background {
     Transparent,
 }
 
+/// Accepted ranges of the count options (documented in README and `--help`).
+pub const MAX_CONTOURS: u64 = 50;
+pub const MAX_LEVELS: usize = 100;
+pub const MAX_PANELS: usize = 16;
+pub const MIN_SIZE: u64 = 200;
+pub const MAX_SIZE: u64 = 10_000;
+
 #[derive(Debug, Args)]
 pub struct SliceArgs {
-    /// Model file (.toml), orbital file (.json) or cube file (.cube, .cube.gz)
+    /// Model file (.toml), orbital file (.json), XYZ file (.xyz, with --method) or cube
+    /// file (.cube, .cube.gz)
     pub source: PathBuf,
     #[command(flatten)]
     pub xyz: super::common::XyzFlags,
     /// Field to draw: orbital:N, orbital-density:N, orbital-deformation:N (N = number,
-    /// homo, lumo, …) or density
+    /// homo, lumo, homo-1, lumo+1, …), density, deformation (against neutral spherical
+    /// atoms), or stored:K (the K-th field of a cube file)
     #[arg(long, required_unless_present = "panels", conflicts_with = "panels")]
     pub field: Option<String>,
-    /// Several fields side by side on the same plane, comma-separated
+    /// Several fields side by side on the same plane, comma-separated (1 to 16)
     #[arg(long, value_name = "FIELD,FIELD,…")]
     pub panels: Option<String>,
     /// Put all panels on one colour scale, so their magnitudes compare honestly
     #[arg(long, requires = "panels")]
     pub shared_scale: bool,
-    /// Maps per row for --panels [default: all in one row up to 3, else a square-ish grid]
-    #[arg(long)]
-    pub columns: Option<usize>,
+    /// Maps per row for --panels, 1 to the number of panels [default: all in one row
+    /// up to 3, else a square-ish grid, fewer per row when maps would get too small]
+    #[arg(long, value_name = "N", allow_negative_numbers = true)]
+    pub columns: Option<String>,
     /// xy, xz, yz (with @offset along the missing axis, in --units), atoms:I,J,K or atoms:I,J
     #[arg(long)]
     pub plane: String,
     /// With --plane atoms:I,J: the direction that, with the bond, spans the plane
-    /// [default: the axis most nearly perpendicular to the bond]
+    /// [default: the axis most nearly perpendicular to the bond]. With xy, xz or yz:
+    /// which of the two axes points up (the other is horizontal)
     #[arg(long, value_enum)]
     pub up: Option<Axis>,
     /// Output PNG file
     #[arg(long, value_name = "FILE")]
     pub png: PathBuf,
-    /// Contour levels per sign, evenly spaced between 0 and the largest |value|; 0 for none
-    #[arg(long, default_value_t = 4, conflicts_with = "levels")]
-    pub contours: usize,
-    /// Explicit contour levels, comma-separated, in the field's unit
+    /// Contour levels per sign, 0 to 50, evenly spaced between 0 and the largest
+    /// |value|; 0 for none
+    #[arg(
+        long,
+        value_name = "N",
+        default_value = "4",
+        conflicts_with = "levels",
+        allow_negative_numbers = true
+    )]
+    pub contours: String,
+    /// Explicit contour levels (at most 100), comma-separated, in the field's unit
     #[arg(long, value_name = "A,B,C", allow_hyphen_values = true)]
     pub levels: Option<String>,
     /// Also draw the zero contour (the nodal line of an orbital), solid and heavier
@@ -68,8 +87,15 @@ pub struct SliceArgs {
     /// Colour scale by its colorous name [default: PURPLE_ORANGE for signed fields, VIRIDIS otherwise]
     #[arg(long)]
     pub scale: Option<String>,
-    /// Logarithmic colours for non-negative fields, over this many decades below the maximum
-    #[arg(long, value_name = "DECADES", num_args = 0..=1, default_missing_value = "4")]
+    /// Logarithmic colours for non-negative fields, over this many decades below the
+    /// maximum (0 < DECADES ≤ 12)
+    #[arg(
+        long,
+        value_name = "DECADES",
+        num_args = 0..=1,
+        default_missing_value = "4",
+        allow_negative_numbers = true
+    )]
     pub log: Option<f64>,
     /// Show atom numbers beside the element symbols
     #[arg(long)]
@@ -77,18 +103,47 @@ pub struct SliceArgs {
     /// Title instead of the automatic one (^{…} raises, _{…} lowers)
     #[arg(long)]
     pub title: Option<String>,
-    /// Width of the figure in pixels
-    #[arg(long, default_value_t = 1000)]
-    pub size: u32,
+    /// Width of the figure in pixels, 200 to 10000 (panels that would get too small
+    /// wrap into more rows, or widen the figure when --columns is given)
+    #[arg(
+        long,
+        value_name = "PIXELS",
+        default_value = "1000",
+        allow_negative_numbers = true
+    )]
+    pub size: String,
     /// Physical window W or W,H (in --units), centred on the nuclei
     /// [default: the nuclei plus 2.5 Å on every side]
-    #[arg(long, value_name = "W[,H]")]
+    #[arg(long, value_name = "W[,H]", allow_hyphen_values = true)]
     pub extent: Option<String>,
     /// Unit of --extent and of a plane offset
     #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
     pub units: LengthUnit,
     #[arg(long, value_enum, default_value_t = Background::White)]
     pub background: Background,
+}
+
+/// Reads a count option and checks it against its documented range. Negative and
+/// huge values are read as numbers first, so the message can say why they are refused.
+pub(crate) fn parse_count(name: &str, text: &str, min: u64, max: u64) -> Result<u64> {
+    let whole = text.trim().parse::<i128>().map_err(|_| {
+        Error::input(format!(
+            "{name} takes a whole number from {min} to {max}, got {text:?}"
+        ))
+    })?;
+    let value = u64::try_from(whole).map_err(|_| {
+        Error::input(format!(
+            "{name} {whole} is outside the accepted range {min} to {max}"
+        ))
+    })?;
+    check_count(name, value, min, max).map_err(|e| {
+        if name == "--size" {
+            e.with_hint("--size is the width of the figure in pixels")
+        } else {
+            e
+        }
+    })?;
+    Ok(value)
 }
 
 pub fn run(args: SliceArgs) -> Result<()> {
@@ -103,11 +158,29 @@ pub fn run(args: SliceArgs) -> Result<()> {
         .filter(|s| !s.trim().is_empty())
         .map(Field::parse)
         .collect::<Result<Vec<_>>>()?;
+    let option = if args.panels.is_some() {
+        "--panels"
+    } else {
+        "--field"
+    };
+    if fields.is_empty() || fields.len() > MAX_PANELS {
+        return Err(Error::input(format!(
+            "{option} takes 1 to {MAX_PANELS} fields, got {}",
+            fields.len()
+        )));
+    }
+    let size = parse_count("--size", &args.size, MIN_SIZE, MAX_SIZE)? as u32;
+    let columns = match &args.columns {
+        Some(c) => parse_count("--columns", c, 1, fields.len() as u64)? as usize,
+        None => 0,
+    };
     let spec = PlaneSpec::parse(&args.plane, args.units)?;
     let scale = args.scale.as_deref().map(Scale::by_name).transpose()?;
     let contours = match &args.levels {
         Some(l) => Contours::Levels(parse_levels(l)?),
-        None => Contours::Auto(args.contours),
+        None => {
+            Contours::Auto(parse_count("--contours", &args.contours, 0, MAX_CONTOURS)? as usize)
+        }
     };
     if let Some(d) = args.log
         && !(d.is_finite() && d > 0.0 && d <= 12.0)
@@ -116,14 +189,18 @@ pub fn run(args: SliceArgs) -> Result<()> {
             "--log takes 0 < decades ≤ 12, got {d}"
         )));
     }
+    let extent = args
+        .extent
+        .as_deref()
+        .map(|e| parse_extent(e, args.units))
+        .transpose()?;
     let source = Source::load(&args.source, &args.xyz.options()?)?;
     let mut plan = OutputPlan::new(source.inputs());
     let png_slot = plan.add_binary(&args.png)?;
     let molecule = source.molecule();
     let plane = spec.resolve(molecule, args.up)?;
-    let window = match &args.extent {
-        Some(e) => {
-            let (w, h) = parse_extent(e, args.units)?;
+    let window = match extent {
+        Some((w, h)) => {
             let centre = plane.window_around(molecule, 0.0).centre();
             Window::centred(centre, w, h)
         }
@@ -202,7 +279,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
             .collect(),
     };
     let style = Style {
-        width: args.size,
+        width: size,
         background: match args.background {
             Background::White => Colour::WHITE,
             Background::Transparent => Colour::TRANSPARENT,
@@ -214,7 +291,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
         nuclei: true,
         numbers: args.numbers,
         shared_scale: args.shared_scale,
-        columns: args.columns.unwrap_or(0),
+        columns,
     };
     let nf = fields.len();
     let mut eval_seconds = 0.0;
@@ -276,27 +353,46 @@ fn parse_levels(text: &str) -> Result<Vec<f64>> {
             Error::input(format!("cannot read --levels {text:?}"))
                 .with_hint("give non-zero numbers separated by commas, e.g. -0.05,0.05,0.1 (use --zero-contour for 0)")
         })?;
+    if levels.len() > MAX_LEVELS {
+        return Err(Error::input(format!(
+            "--levels takes 1 to {MAX_LEVELS} levels, got {}",
+            levels.len()
+        )));
+    }
     Ok(levels)
 }
 
-/// `W` (a square) or `W,H`, in `unit`, to bohr.
+/// `W` (a square) or `W,H`, in `unit`, to bohr. Each must be a positive length, at
+/// most 1000 Å (a window far larger than any molecule shows nothing).
 fn parse_extent(text: &str, unit: LengthUnit) -> Result<(f64, f64)> {
+    let name = unit.symbol();
     let v = text
         .split(',')
-        .map(|s| {
-            s.trim()
-                .parse::<f64>()
-                .ok()
-                .filter(|v| v.is_finite() && *v > 0.0)
-        })
+        .map(|s| s.trim().parse::<f64>().ok().filter(|v| v.is_finite()))
         .collect::<Option<Vec<_>>>()
         .ok_or_else(|| {
             Error::input(format!("cannot read --extent {text:?}"))
-                .with_hint("give a positive width W, or W,H")
+                .with_hint(format!("give a positive width W, or W,H, in {name}"))
         })?;
+    let max_bohr = LengthUnit::Angstrom.to_bohr(MAX_EXTENT_ANGSTROM);
+    for x in &v {
+        if *x <= 0.0 {
+            return Err(Error::input(format!(
+                "--extent must be positive, got {x} {name}"
+            )));
+        }
+        if unit.to_bohr(*x) > max_bohr {
+            return Err(Error::input(format!(
+                "--extent must be at most {MAX_EXTENT_ANGSTROM} Å, got {x} {name}"
+            )));
+        }
+    }
     match v[..] {
         [w] => Ok((unit.to_bohr(w), unit.to_bohr(w))),
         [w, h] => Ok((unit.to_bohr(w), unit.to_bohr(h))),
         _ => Err(Error::input(format!("cannot read --extent {text:?}")).with_hint("give W or W,H")),
     }
 }
+
+/// The largest accepted --extent (Å).
+pub const MAX_EXTENT_ANGSTROM: f64 = 1000.0;

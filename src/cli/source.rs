@@ -59,7 +59,8 @@ impl Sampler<'_> {
 /// How a field is labelled in figures (markup) and in plain output.
 #[derive(Debug, Clone)]
 pub struct FieldInfo {
-    /// "orbital 1, E = −0.5648 hartree (−15.37 eV)".
+    /// "orbital 1, E = −0.5648 hartree (−15.37 eV)"; for extended Hückel
+    /// "orbital 6, E = −13.22 eV".
     pub heading: String,
     /// "ψ_{1}".
     pub quantity: String,
@@ -209,13 +210,28 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
         return Err(crate::field::stored_needs_cube());
     }
     let n = field.orbital_number(set)?;
+    // Extended-Hückel energies are stated in eV, the method's own unit (its
+    // parameters are in eV); other methods give hartree with eV beside it.
+    let in_ev = is_extended_huckel(set);
     let energy = |n: usize| {
         let e = set.orbitals[n - 1].energy;
-        format!(
-            "E = {} hartree ({} eV)",
-            minus(format!("{e:.4}")),
-            minus(format!("{:.2}", hartree_to_ev(e)))
-        )
+        if in_ev {
+            format!("E = {} eV", minus(format!("{:.2}", hartree_to_ev(e))))
+        } else {
+            format!(
+                "E = {} hartree ({} eV)",
+                minus(format!("{e:.4}")),
+                minus(format!("{:.2}", hartree_to_ev(e)))
+            )
+        }
+    };
+    let short_energy = |n: usize| {
+        let e = set.orbitals[n - 1].energy;
+        if in_ev {
+            format!("{} eV", minus(format!("{:.2}", hartree_to_ev(e))))
+        } else {
+            format!("{} hartree", minus(format!("{e:.4}")))
+        }
     };
     let (heading, quantity, plain) = match field {
         Field::Orbital(_) => (
@@ -250,10 +266,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
     };
     let short = match field {
         Field::Density | Field::Deformation => quantity.clone(),
-        _ => format!(
-            "{quantity}, E_{{{n}}} = {} hartree",
-            minus(format!("{:.4}", set.orbitals[n - 1].energy))
-        ),
+        _ => format!("{quantity}, E_{{{n}}} = {}", short_energy(n)),
     };
     let family = match field {
         Field::Orbital(_) => "ψ",
@@ -270,6 +283,11 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
         plain: format!("{plain} ({})", field.unit()),
         signed: field.is_signed(),
     })
+}
+
+/// Whether the orbitals come from extended Hückel, whose energies figures give in eV.
+pub fn is_extended_huckel(set: &OrbitalSet) -> bool {
+    set.method.starts_with("extended Hückel")
 }
 
 /// Replaces a hyphen-minus with a true minus sign for figures.

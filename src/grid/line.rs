@@ -63,7 +63,7 @@ impl Line {
     pub fn new(start: [f64; 3], end: [f64; 3], extend: f64) -> Result<Self> {
         if !(extend.is_finite() && extend >= 0.0) {
             return Err(Error::input(format!(
-                "--extend must be zero or positive, got {extend}"
+                "--extend must be zero or positive, got {extend} bohr"
             )));
         }
         let line = Line { start, end, extend };

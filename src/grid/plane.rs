@@ -81,8 +81,10 @@ impl PlaneSpec {
         })
     }
 
-    /// Places the plane on a molecule. `up` is needed only by `atoms:I,J`; without it
-    /// the Cartesian axis most nearly perpendicular to the bond is taken.
+    /// Places the plane on a molecule. With `atoms:I,J`, `up` is the direction that
+    /// spans the plane with the bond (without it, the Cartesian axis most nearly
+    /// perpendicular to the bond). With `xy`, `xz`, `yz` it is the axis drawn upwards;
+    /// the plane's normal is refused, as is any `up` with `atoms:I,J,K`.
     pub fn resolve(&self, molecule: &Molecule, up: Option<Axis>) -> Result<Plane> {
         let atom = |i: usize| {
             molecule.atoms.get(i).map(|a| a.position).ok_or_else(|| {
@@ -98,6 +100,26 @@ impl PlaneSpec {
                 let n = 3 - u - v;
                 let mut origin = [0.0; 3];
                 origin[n] = offset;
+                // --up names the axis drawn upwards: v as written, or u (the two swap);
+                // the plane's normal cannot point up in the picture.
+                let (u, v, turned) = match up.map(Axis::index) {
+                    None => (u, v, false),
+                    Some(a) if a == v => (u, v, false),
+                    Some(a) if a == u => (v, u, true),
+                    Some(a) => {
+                        return Err(Error::input(format!(
+                            "--up {} is perpendicular to the plane {}{}, so it cannot point up in it",
+                            NAMES[a],
+                            NAMES[u.min(v)],
+                            NAMES[u.max(v)]
+                        ))
+                        .with_hint(format!(
+                            "give --up {} or --up {} (the axis drawn upwards), or leave it out",
+                            NAMES[u.min(v)],
+                            NAMES[u.max(v)]
+                        )));
+                    }
+                };
                 Ok(Plane {
                     origin,
                     u: unit_vector(u),
@@ -105,14 +127,23 @@ impl PlaneSpec {
                     u_label: NAMES[u].into(),
                     v_label: NAMES[v].into(),
                     description: format!(
-                        "plane {}{} at {} = {:.3} Å",
-                        NAMES[u],
-                        NAMES[v],
+                        "plane {}{} at {} = {:.3} Å{}",
+                        NAMES[u.min(v)],
+                        NAMES[u.max(v)],
                         NAMES[n],
-                        bohr_to_angstrom(offset)
+                        bohr_to_angstrom(offset),
+                        if turned {
+                            format!(", {} up", NAMES[v])
+                        } else {
+                            String::new()
+                        }
                     ),
                 })
             }
+            PlaneSpec::ThreeAtoms(_) if up.is_some() => Err(Error::input(
+                "--up does not apply to a plane through three atoms: the atoms fix its orientation",
+            )
+            .with_hint("leave out --up, or use atoms:I,J with --up x|y|z")),
             PlaneSpec::ThreeAtoms([i, j, k]) => {
                 let (a, b, c) = (atom(i)?, atom(j)?, atom(k)?);
                 let u = normalise(sub(b, a)).ok_or_else(|| same(i, j))?;
@@ -400,6 +431,28 @@ mod tests {
         assert!((bond.v[2] - 1.0).abs() < 1e-12);
         assert!(PlaneSpec::Bond([1, 2]).resolve(&m, Some(Axis::X)).is_err());
         assert!(PlaneSpec::Bond([1, 7]).resolve(&m, None).is_err());
+    }
+
+    #[test]
+    fn up_turns_an_axis_plane_or_is_refused() {
+        let m = water_like();
+        let xy = PlaneSpec::parse("xy", LengthUnit::Bohr).unwrap();
+        // Default and --up y: x across, y up.
+        let p = xy.resolve(&m, Some(Axis::Y)).unwrap();
+        assert_eq!((p.u, p.v), ([1.0, 0.0, 0.0], [0.0, 1.0, 0.0]));
+        // --up x: y across, x up.
+        let p = xy.resolve(&m, Some(Axis::X)).unwrap();
+        assert_eq!((p.u, p.v), ([0.0, 1.0, 0.0], [1.0, 0.0, 0.0]));
+        assert_eq!((p.u_label.as_str(), p.v_label.as_str()), ("y", "x"));
+        assert!(p.description.contains("x up"), "{}", p.description);
+        // --up z is the normal of xy: refused, naming the plane.
+        let e = xy.resolve(&m, Some(Axis::Z)).unwrap_err();
+        assert!(e.message.contains("plane xy"), "{}", e.message);
+        assert!(
+            PlaneSpec::ThreeAtoms([0, 1, 2])
+                .resolve(&m, Some(Axis::Z))
+                .is_err()
+        );
     }
 
     #[test]
