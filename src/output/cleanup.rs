@@ -7,6 +7,9 @@ use std::sync::{Mutex, Once};
 
 /// Every temporary file of this process not yet renamed into place.
 static LIVE: Mutex<Vec<PathBuf>> = Mutex::new(Vec::new());
+/// Folders where this process creates temporary files: an interrupt that lands
+/// between a file's creation and its registration still finds it there by name.
+static FOLDERS: Mutex<Vec<PathBuf>> = Mutex::new(Vec::new());
 static HANDLER: Once = Once::new();
 
 /// The marker in our temporary names: `.NAME.lobecast-PID.XXXXXX.part`.
@@ -16,8 +19,14 @@ pub const SUFFIX: &str = ".part";
 /// Exit status after an interrupt: 128 + SIGINT, the shell's convention.
 const INTERRUPTED: i32 = 130;
 
-/// Records a temporary file so an interrupt removes it; installs the handler once.
-pub fn register(path: &Path) {
+/// Installs the interrupt handler (once) and records a folder about to receive
+/// temporary files; call before creating them.
+pub fn watch_folder(folder: &Path) {
+    if let Ok(mut f) = FOLDERS.lock() {
+        if !f.iter().any(|x| x == folder) {
+            f.push(folder.to_path_buf());
+        }
+    }
     HANDLER.call_once(|| {
         // If another handler is already installed (a host program embedding the
         // library), leave it alone: the drop guards still clean up on errors.
@@ -27,6 +36,10 @@ pub fn register(path: &Path) {
             std::process::exit(INTERRUPTED);
         });
     });
+}
+
+/// Records a temporary file so an interrupt removes it.
+pub fn register(path: &Path) {
     if let Ok(mut live) = LIVE.lock() {
         live.push(path.to_path_buf());
     }
@@ -43,6 +56,19 @@ fn remove_live() {
     if let Ok(live) = LIVE.lock() {
         for p in live.iter() {
             let _ = std::fs::remove_file(p);
+        }
+    }
+    let me = std::process::id();
+    if let Ok(folders) = FOLDERS.lock() {
+        for folder in folders.iter() {
+            let Ok(entries) = std::fs::read_dir(folder) else {
+                continue;
+            };
+            for e in entries.flatten() {
+                if e.file_name().to_str().and_then(writer_pid) == Some(me) {
+                    let _ = std::fs::remove_file(e.path());
+                }
+            }
         }
     }
 }

@@ -118,6 +118,7 @@ impl OutputPlan {
                 Target::File { shown, real } => {
                     let folder = target::folder_of(&real);
                     cleanup::remove_stale(&folder);
+                    cleanup::watch_folder(&folder);
                     Open::File(Pending::create(shown, real, &folder)?)
                 }
             });
