@@ -4,9 +4,9 @@
 
 use std::io::Write;
 
-use super::format::push_e13;
+use super::format::{NotFinite, push_e13};
 use super::reader::CubeReader;
-use super::writer::{CubeAtom, CubeHeader, PER_LINE, WIDTH};
+use super::writer::{CubeAtom, CubeHeader, PER_LINE, WIDTH, not_finite_error};
 use crate::error::{Error, Result};
 use crate::grid::GridBox;
 
@@ -119,8 +119,11 @@ pub fn write_weighted_sum<W: Write>(
             }
         }
         buf.clear();
-        for &v in &sum[..points] {
-            push_e13(&mut buf, v);
+        for (n, &v) in sum[..points].iter().enumerate() {
+            push_e13(&mut buf, v).map_err(|NotFinite(v)| {
+                not_finite_error(&header.grid, done + n, 0, v)
+                    .with_hint("the weights or the stored values are too large for their sum")
+            })?;
             in_row += 1;
             if in_row == row || in_row % PER_LINE == 0 {
                 buf.push(b'\n');

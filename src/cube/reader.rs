@@ -630,20 +630,30 @@ pub fn parse_finite(s: &[u8]) -> std::result::Result<f64, String> {
     }
 }
 
-/// The general case: `D` exponents rewritten, then the standard parser.
+/// The general case: `D` exponents rewritten, the exponent letter put back into the
+/// Fortran form (`3.86160-106`, `1.0+100`: a sign straight after the mantissa's last
+/// digit), then the standard parser.
 #[cold]
 #[inline(never)]
 fn parse_slow(s: &[u8]) -> std::result::Result<f64, String> {
     if s.len() > MAX_TOKEN {
         return Err("an entry is too long to be a number".into());
     }
-    let mut owned = [0u8; MAX_TOKEN];
-    let n = s.len().min(MAX_TOKEN);
-    owned[..n].copy_from_slice(&s[..n]);
-    for b in &mut owned[..n] {
-        if *b == b'D' || *b == b'd' {
-            *b = b'E';
+    let mut owned = [0u8; MAX_TOKEN + 1];
+    let mut n = 0;
+    let has_letter = s.iter().any(|b| matches!(b, b'E' | b'e' | b'D' | b'd'));
+    for (i, &b) in s.iter().enumerate() {
+        let fortran_sign = !has_letter
+            && matches!(b, b'+' | b'-')
+            && i > 0
+            && (s[i - 1].is_ascii_digit() || s[i - 1] == b'.')
+            && s.get(i + 1).is_some_and(u8::is_ascii_digit);
+        if fortran_sign {
+            owned[n] = b'E';
+            n += 1;
         }
+        owned[n] = if b == b'D' || b == b'd' { b'E' } else { b };
+        n += 1;
     }
     let text = std::str::from_utf8(&owned[..n]).unwrap_or("");
     // The standard parser also takes "inf", "NaN" and "infinity": refuse those here,
@@ -705,10 +715,12 @@ fn fast_parse(s: &[u8]) -> Option<f64> {
         return None;
     }
     if i < s.len() {
-        if !matches!(s[i], b'E' | b'e' | b'D' | b'd') {
+        // A letter, or the Fortran form's bare sign (`3.86160-106`).
+        if matches!(s[i], b'E' | b'e' | b'D' | b'd') {
+            i += 1;
+        } else if !matches!(s[i], b'+' | b'-') {
             return None;
         }
-        i += 1;
         let eneg = match s.get(i)? {
             b'-' => {
                 i += 1;
@@ -770,6 +782,35 @@ mod tests {
         }
         assert_eq!(parse_finite(b"1.5D-03").unwrap(), 1.5e-3);
         assert_eq!(parse_finite(b"-2.25d+01").unwrap(), -22.5);
+    }
+
+    /// Issue 10, item 17: Fortran writes a three-digit exponent without its letter
+    /// (the E format drops it when the exponent needs three digits; common practice
+    /// of Fortran E editing). The reference is the standard parser on the same number
+    /// written with its `E`.
+    #[test]
+    fn fortran_exponents_without_a_letter() {
+        for (fortran, with_e) in [
+            ("3.86160-106", "3.86160E-106"),
+            ("-3.86160-106", "-3.86160E-106"),
+            ("1.0+100", "1.0E+100"),
+            ("2.5-3", "2.5E-3"),
+            ("-7.-5", "-7.E-5"),
+            ("1.79769+308", "1.79769E+308"),
+            ("4.94066-324", "4.94066E-324"),
+        ] {
+            let ours = parse_finite(fortran.as_bytes()).unwrap();
+            assert_eq!(
+                ours.to_bits(),
+                with_e.parse::<f64>().unwrap().to_bits(),
+                "{fortran}"
+            );
+        }
+        for bad in [
+            "1.0-", "1.0+-5", "1-2-3", "1e5-3", "-+1", "1.0+1e2", "1.0 -5", "+",
+        ] {
+            assert!(parse_finite(bad.as_bytes()).is_err(), "{bad}");
+        }
     }
 
     #[test]

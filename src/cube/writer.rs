@@ -3,7 +3,7 @@
 
 use std::io::Write;
 
-use super::format::push_e13;
+use super::format::{NotFinite, push_e13};
 use crate::error::{Error, Result};
 use crate::grid::{GridBox, Slab, stream_slabs};
 
@@ -89,20 +89,45 @@ impl CubeHeader {
 }
 
 /// Formats one slab's values: rows of `row_len` values, six per line, a new line
-/// after each row.
-pub fn format_slab(values: &[f64], row_len: usize, buf: &mut Vec<u8>) {
+/// after each row. A value that is not finite is refused: its position in `values`
+/// and the value are returned, and the buffer is incomplete.
+pub fn format_slab(
+    values: &[f64],
+    row_len: usize,
+    buf: &mut Vec<u8>,
+) -> std::result::Result<(), (usize, f64)> {
+    let mut at = 0;
     for row in values.chunks(row_len) {
         for line in row.chunks(PER_LINE) {
             for &v in line {
-                push_e13(buf, v);
+                push_e13(buf, v).map_err(|NotFinite(v)| (at, v))?;
+                at += 1;
             }
             buf.push(b'\n');
         }
     }
+    Ok(())
+}
+
+/// The error for a value that cannot be written, at grid point `point` (in cube
+/// order) and stored field `field` (from 0).
+pub fn not_finite_error(grid: &GridBox, point: usize, field: usize, v: f64) -> Error {
+    let [_, ny, nz] = grid.counts;
+    let (i, j, k) = (point / (ny * nz), point / nz % ny, point % nz);
+    Error::input(format!(
+        "the value at grid point ({}, {}, {}) of field {} is {v}, which a cube file cannot \
+         hold; nothing was written",
+        i + 1,
+        j + 1,
+        k + 1,
+        field + 1
+    ))
 }
 
 /// Writes header and values. `eval` fills interleaved values (points × fields);
-/// `progress` is told after every slab.
+/// `progress` is told after every slab. A value that is not finite stops the writing
+/// with an input error before its slab is written (the caller's temporary file is
+/// then discarded).
 pub fn write_streaming<W, E>(
     header: &CubeHeader,
     eval: E,
@@ -116,6 +141,8 @@ where
     let io = |e: std::io::Error| Error::internal(format!("writing the cube file failed: {e}"));
     out.write_all(header.text().as_bytes()).map_err(io)?;
     let row_len = header.row_len();
+    let fields = header.field_count();
+    let slab_points = header.grid.counts[1] * header.grid.counts[2];
     let mut done = 0;
     stream_slabs(
         &header.grid,
@@ -123,10 +150,13 @@ where
         eval,
         |values| {
             let mut buf = Vec::with_capacity(values.len() * (WIDTH + 1));
-            format_slab(values, row_len, &mut buf);
-            buf
+            format_slab(values, row_len, &mut buf).map(|()| buf)
         },
-        |bytes| {
+        |formatted| {
+            let bytes = formatted.map_err(|(at, v)| {
+                let point = done * slab_points + at / fields;
+                not_finite_error(&header.grid, point, at % fields, v)
+            })?;
             out.write_all(&bytes).map_err(io)?;
             done += 1;
             progress(done);
