@@ -124,7 +124,7 @@ fn main() {
     let mut buf = Vec::with_capacity(bytes);
     let fmt = time(5, || {
         buf.clear();
-        format_slab(&values, 200, &mut buf);
+        format_slab(&values, 200, &mut buf).expect("finite values");
         std::hint::black_box(&buf);
     });
     println!(
