@@ -639,7 +639,8 @@ fn parse_slow(s: &[u8]) -> std::result::Result<f64, String> {
     if s.len() > MAX_TOKEN {
         return Err("an entry is too long to be a number".into());
     }
-    let mut owned = [0u8; MAX_TOKEN + 1];
+    // Each input byte becomes at most two (a Fortran sign gains its letter).
+    let mut owned = [0u8; 2 * MAX_TOKEN];
     let mut n = 0;
     let has_letter = s.iter().any(|b| matches!(b, b'E' | b'e' | b'D' | b'd'));
     for (i, &b) in s.iter().enumerate() {
@@ -821,5 +822,16 @@ mod tests {
         ] {
             assert!(parse_finite(s.as_bytes()).is_err(), "{s}");
         }
+    }
+
+    /// Regression: a 64-byte token with many Fortran signs once overflowed the
+    /// rewrite buffer (a byte-mutation case, CI run of an earlier submission).
+    #[test]
+    fn longest_token_with_many_fortran_signs_is_an_error_not_a_panic() {
+        let token = "1-".repeat(MAX_TOKEN / 2);
+        assert_eq!(token.len(), MAX_TOKEN);
+        assert!(parse_finite(token.as_bytes()).is_err());
+        let one_sign = format!("{}-1", "1".repeat(MAX_TOKEN - 2));
+        assert!(parse_finite(one_sign.as_bytes()).is_ok());
     }
 }
