@@ -153,7 +153,7 @@ fn main() {
             })
             .unwrap();
             pixels = r.grid.nx * r.grid.ny * n;
-            std::hint::black_box(r.canvas.encode_png());
+            std::hint::black_box(r.canvas.encode_png().unwrap());
         });
         println!(
             "whole figure {width} px wide, {n} map(s) of {pixels} sampled pixels in all, 4 contour levels per sign, PNG encoded: median {t:.3} s"

@@ -14,6 +14,7 @@ pub mod error;
 pub mod field;
 pub mod grid;
 pub mod integrals;
+pub mod io;
 pub mod model;
 pub mod output;
 pub mod plot;

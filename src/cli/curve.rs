@@ -190,12 +190,12 @@ pub fn run(args: CurveArgs) -> Result<()> {
         let data = chart
             .as_ref()
             .ok_or_else(|| Error::input("--png needs at least two states (--states 2)"))?;
-        files.push((slot, crate::plot::curve::energies(data)?.encode_png()));
+        files.push((slot, crate::plot::curve::energies(data)?.encode_png()?));
         if let Some(slot) = integrals_png {
-            files.push((slot, crate::plot::curve::integrals(data)?.encode_png()));
+            files.push((slot, crate::plot::curve::integrals(data)?.encode_png()?));
         }
         if let (Some(slot), Some(b)) = (buildup_png, &buildups) {
-            files.push((slot, charts::buildup(&model, &rs, b)?.encode_png()));
+            files.push((slot, charts::buildup(&model, &rs, b)?.encode_png()?));
         }
     }
     let mut out = plan.open()?;

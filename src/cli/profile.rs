@@ -189,7 +189,7 @@ pub fn run(args: ProfileArgs) -> Result<()> {
             width: size,
             background: Colour::WHITE,
         };
-        files.push((slot, draw(&chart)?.encode_png()));
+        files.push((slot, draw(&chart)?.encode_png()?));
     }
     let mut out = plan.open()?;
     for (slot, bytes) in &files {

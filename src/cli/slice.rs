@@ -304,7 +304,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
             .collect()
     })?;
     let mut out = plan.open()?;
-    out.put(png_slot, &rendered.canvas.encode_png())?;
+    out.put(png_slot, &rendered.canvas.encode_png()?)?;
     let written = out.commit()?.remove(0);
     let g = &rendered.grid;
     let samples = g.nx * g.ny * nf;

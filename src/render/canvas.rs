@@ -1,5 +1,5 @@
 //! A pixel canvas (tiny-skia underneath: anti-aliased strokes, dashes and fills)
-//! with text from the embedded font, encoded to PNG at the end.
+//! with text from the embedded font; `io::png` encodes it at the end.
 
 use tiny_skia::{
     FillRule, LineCap, LineJoin, Paint, PathBuilder, Pixmap, PremultipliedColorU8, Rect, Stroke,
@@ -273,10 +273,20 @@ impl Canvas {
         Canvas { pixmap: out }
     }
 
-    pub fn encode_png(&self) -> Vec<u8> {
-        self.pixmap
-            .encode_png()
-            .expect("encoding an in-memory PNG cannot fail")
+    /// The pixels as a straight-alpha raster (tiny-skia keeps them premultiplied).
+    pub fn to_image(&self) -> image::RgbaImage {
+        let (w, h) = (self.pixmap.width(), self.pixmap.height());
+        let mut raw = Vec::with_capacity(w as usize * h as usize * 4);
+        for p in self.pixmap.pixels() {
+            let c = p.demultiply();
+            raw.extend_from_slice(&[c.red(), c.green(), c.blue(), c.alpha()]);
+        }
+        image::RgbaImage::from_raw(w, h, raw).expect("the raster has w·h pixels")
+    }
+
+    /// The figure as a PNG file (see `io::png`).
+    pub fn encode_png(&self) -> crate::Result<Vec<u8>> {
+        crate::io::png::encode(&self.to_image(), &crate::io::png::PngMeta::default())
     }
 }
 

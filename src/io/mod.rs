@@ -1,0 +1,3 @@
+//! File formats, one file each, each opening with its layout and its specification.
+
+pub mod png;
