@@ -5,7 +5,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use crate::cube::arith::{Term, atoms_difference, compare_grids, write_weighted_sum};
+use crate::cube::arith::{Term, atoms_difference, compare_grids, stored_units, write_weighted_sum};
 use crate::cube::sink::CubeSink;
 use crate::cube::{CubeHeader, CubeReader};
 use crate::error::{Error, Result};
@@ -17,7 +17,9 @@ pub struct CombineArgs {
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
     /// Inputs as FILE[#FIELD][:WEIGHT], e.g. a.cube:1 b.cube:-1 or c.cube#2:0.5;
-    /// FIELD counts the stored fields of a multi-field file from 1; WEIGHT defaults to 1
+    /// FIELD counts the stored fields of a multi-field file from 1; WEIGHT defaults to 1.
+    /// A name that contains ':' or '#' is read whole when that file exists, or give
+    /// the weight (and field) after it: my:run.cube:1, c#1.cube#1:1
     #[arg(required = true, value_name = "FILE[#FIELD][:WEIGHT]")]
     pub inputs: Vec<String>,
 }
@@ -32,9 +34,18 @@ pub struct InputSpec {
 
 impl InputSpec {
     pub fn parse(s: &str) -> Result<Self> {
+        // An existing file is taken whole, so names with ':' or '#' need no escape.
+        if std::path::Path::new(s).is_file() {
+            return Ok(InputSpec {
+                path: PathBuf::from(s),
+                field: None,
+                weight: 1.0,
+            });
+        }
         let bad = |why: &str| {
-            Error::input(format!("cannot read the input '{s}': {why}"))
-                .with_hint("write inputs as FILE[#FIELD][:WEIGHT], e.g. a.cube:1 b.cube#2:-0.5")
+            Error::input(format!("cannot read the input '{s}': {why}")).with_hint(
+                "write inputs as FILE[#FIELD][:WEIGHT], e.g. a.cube:1 b.cube#2:-0.5; for a name with ':' or '#', give the weight after it: my:run.cube:1",
+            )
         };
         let (rest, weight) = match s.rsplit_once(':') {
             Some((p, w)) => match w.trim().parse::<f64>() {
@@ -129,11 +140,12 @@ pub fn run(args: CombineArgs) -> Result<()> {
             );
         }
     }
+    let unit = sum_unit(&terms);
     let what = describe(&specs);
     let header = CubeHeader {
         title: format!("lobecast combine: {what}"),
         comment: format!(
-            "weighted sum of cube fields on a common grid; lobecast {}",
+            "weighted sum of cube fields on a common grid, {unit}; lobecast {}",
             env!("CARGO_PKG_VERSION")
         ),
         atoms: first.atoms.clone(),
@@ -151,6 +163,34 @@ pub fn run(args: CombineArgs) -> Result<()> {
     super::common::print_out(&format!(
         "wrote {written}: {what} on {nx}×{ny}×{nz} points\n"
     ))
+}
+
+/// The unit of the sum for the comment line: the inputs' common unit, or a warning
+/// (printed) when an orbital (bohr^-3/2) is added to a density (e/bohr^3) — such a
+/// sum has no physical meaning, but a user may want it as a picture.
+fn sum_unit(terms: &[Term]) -> String {
+    let units: Vec<(String, Option<&str>)> = terms
+        .iter()
+        .map(|t| {
+            let info = t.reader.info();
+            let u = stored_units(&info.header.comment, info.fields)[t.field];
+            (t.reader.name().to_string(), u)
+        })
+        .collect();
+    let known: Vec<&str> = units.iter().filter_map(|(_, u)| *u).collect();
+    if known.len() < units.len() {
+        return "in the units of the inputs".into();
+    }
+    if known.iter().all(|u| *u == known[0]) {
+        return format!("in {}", known[0]);
+    }
+    let list = units
+        .iter()
+        .map(|(n, u)| format!("{n} in {}", u.unwrap_or("?")))
+        .collect::<Vec<_>>()
+        .join(", ");
+    eprintln!("warning: the inputs have different units ({list}); their sum has no physical unit");
+    format!("mixed units ({})", known.join(" and "))
 }
 
 #[cfg(test)]

@@ -6,7 +6,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use super::common::{length, load_model, print_notes, print_out, say};
+use super::common::{load_model, print_notes, print_out, say};
 use super::curve_charts as charts;
 use super::curve_report as report;
 use crate::basis::{BasisSpec, Shell};
@@ -89,11 +89,7 @@ fn two_atom_model(model: &Model) -> Result<(&Molecule, &BasisSpec)> {
 pub fn run(args: CurveArgs) -> Result<()> {
     let model = load_model(&args.model)?;
     let (molecule, spec) = two_atom_model(&model)?;
-    let rs = curve::separations(
-        length(args.from, args.units),
-        length(args.to, args.units),
-        length(args.step, args.units),
-    )?;
+    let rs = curve::separations_in(args.from, args.to, args.step, args.units)?;
     let (a, b) = (&molecule.atoms[0], &molecule.atoms[1]);
     let closed_form = spec.is_slater_1s() && a.element == b.element;
     if args.png.is_some() && !closed_form && args.states < 2 {

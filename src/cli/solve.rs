@@ -32,8 +32,15 @@ pub fn run(args: SolveArgs) -> Result<()> {
     let set = orbitals_within(&model, args.memory)?;
     // Extended-Hückel sets (solved now or read back from an orbital file) have no
     // total energy to speak of.
+    // The electrons the orbitals hold, as occupied: fractional occupations stay
+    // fractional (an orbital file may carry them).
+    let occupied: f64 = set.orbitals.iter().map(|o| o.occupation).sum();
+    let electrons = if (occupied - occupied.round()).abs() <= 1e-9 {
+        format!("{}", occupied.round())
+    } else {
+        format!("{occupied:.4}")
+    };
     if set.reference.is_some() || set.method.starts_with("extended Hückel") {
-        let electrons: f64 = set.orbitals.iter().map(|o| o.occupation).sum();
         say!(
             "lobecast solve: {} from {}, {}, {electrons} valence electron(s); orbital energies only (no total energy)",
             set.molecule.formula_with_charge(),
@@ -42,11 +49,10 @@ pub fn run(args: SolveArgs) -> Result<()> {
         );
     } else {
         say!(
-            "lobecast solve: {} from {}, {}, {} electron(s); energies include the nuclear repulsion {:.8} hartree",
+            "lobecast solve: {} from {}, {}, {electrons} electron(s); energies include the nuclear repulsion {:.8} hartree",
             set.molecule.formula_with_charge(),
             model.path.display(),
             set.method,
-            set.molecule.electron_count(),
             set.molecule.nuclear_repulsion()
         );
     }
@@ -61,7 +67,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
             &model.inputs,
             crate::solve::orbital_file::to_json(&set).as_bytes(),
         )?;
-        eprintln!("wrote {}", path.display());
+        say!("wrote {}", path.display());
     }
     Ok(())
 }

@@ -72,6 +72,25 @@ pub fn atoms_difference(a: &[CubeAtom], b: &[CubeAtom]) -> Option<String> {
     None
 }
 
+/// The unit of each stored field as lobecast's own writer names it in the comment
+/// line (one `; `-separated part per field, `bohr^-3/2` for orbitals, `e/bohr^3` for
+/// densities); `None` where the part names neither, as in files from elsewhere.
+pub fn stored_units(comment: &str, fields: usize) -> Vec<Option<&'static str>> {
+    let parts: Vec<&str> = comment.split("; ").collect();
+    (0..fields)
+        .map(|k| {
+            let part = parts.get(k).copied().unwrap_or("");
+            if part.contains("bohr^-3/2") {
+                Some("bohr^-3/2")
+            } else if part.contains("e/bohr^3") {
+                Some("e/bohr^3")
+            } else {
+                None
+            }
+        })
+        .collect()
+}
+
 /// One term of a weighted sum: an open file, the stored field to take (from 0) and
 /// its weight.
 pub struct Term {

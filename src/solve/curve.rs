@@ -2,6 +2,7 @@
 //! each R, and the equilibrium refined beyond the scan step.
 
 use super::brent::minimize;
+use crate::chem::LengthUnit;
 use crate::error::{Error, Result};
 use crate::integrals::two_centre::{TwoCentre1s, two_centre_1s};
 
@@ -57,6 +58,13 @@ pub fn point(z: f64, choice: ZetaChoice, r: f64) -> CurvePoint {
 /// Separations from `from` to `to` inclusive in steps of `step` (bohr); each is
 /// computed as from + i·step so no rounding accumulates.
 pub fn separations(from: f64, to: f64, step: f64) -> Result<Vec<f64>> {
+    separations_in(from, to, step, LengthUnit::Bohr)
+}
+
+/// `separations` for values given in `unit`: refusals quote the values as the user
+/// gave them, with their unit; the result is in bohr.
+pub fn separations_in(from: f64, to: f64, step: f64, unit: LengthUnit) -> Result<Vec<f64>> {
+    let u = unit.symbol();
     if !(from.is_finite() && to.is_finite() && step.is_finite()) {
         return Err(Error::input(
             "--from, --to and --step must be finite numbers",
@@ -64,17 +72,20 @@ pub fn separations(from: f64, to: f64, step: f64) -> Result<Vec<f64>> {
     }
     if from <= 0.0 {
         return Err(Error::input(format!(
-            "the scan must start at R > 0, got --from {from}"
+            "the scan must start at R > 0, got --from {from} {u}"
         )));
     }
     if step <= 0.0 {
-        return Err(Error::input(format!("--step must be positive, got {step}")));
+        return Err(Error::input(format!(
+            "--step must be positive, got {step} {u}"
+        )));
     }
     if to < from {
         return Err(Error::input(format!(
-            "--to ({to}) is smaller than --from ({from})"
+            "--to ({to} {u}) is smaller than --from ({from} {u})"
         )));
     }
+    let (from, to, step) = (unit.to_bohr(from), unit.to_bohr(to), unit.to_bohr(step));
     let count = ((to - from) / step + 1e-9).floor() as usize + 1;
     if count > 1_000_000 {
         return Err(Error::input(format!(

@@ -15,6 +15,10 @@ use crate::error::{Error, Result};
 pub const FORMAT: &str = "lobecast-orbitals";
 pub const VERSION: u32 = 1;
 
+/// The largest inferred charge a title shows (common practice: molecular ions in
+/// reports rarely carry more than ±3).
+const MAX_SHOWN_CHARGE: f64 = 3.0;
+
 /// The most basis functions a file may have (documented in the README). The overlap
 /// matrix and its products are dense n × n: 10 000 functions need 0.8 GB per matrix
 /// and about 5·10⁷ function pairs of integrals, the most a laptop run should take.
@@ -262,10 +266,23 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         None => atoms.iter().map(Atom::charge).sum(),
     };
     // Version 1 states no charge: it is inferred from the occupations, and shown in
-    // titles only when they add up to a whole number of electrons.
-    let mut molecule = Molecule::new(atoms, (nuclear - electrons).round() as i32)
+    // titles only when they add up to a whole number of electrons and the charge is
+    // one an ion plausibly carries (|q| ≤ MAX_SHOWN_CHARGE); a larger one almost
+    // always means a file of valence or active orbitals only, not a highly charged ion.
+    let inferred = (nuclear - electrons).round();
+    let whole = (electrons - electrons.round()).abs() <= 1e-6;
+    let plausible = inferred.abs() <= MAX_SHOWN_CHARGE;
+    let mut molecule = Molecule::new(atoms, inferred as i32)
         .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
-    molecule.charge_known = (electrons - electrons.round()).abs() <= 1e-6;
+    molecule.charge_known = whole && plausible;
+    let mut notes = doc.notes.clone();
+    if whole && !plausible {
+        notes.push(format!(
+            "the occupations hold {} electrons against a nuclear charge of {}; taking the file to hold part of the orbitals only, no charge is shown",
+            electrons.round(),
+            nuclear
+        ));
+    }
     let overlap = overlap_for(&molecule, &basis);
     match &overlap {
         Some(s) => {
@@ -282,7 +299,6 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             "note: {name}: lobecast has no overlap integrals for this basis (it mixes Slater and Gaussian functions, or has Slater functions beyond s and p), so the orbitals' normalisation is not checked"
         ),
     }
-    let mut notes = doc.notes.clone();
     if orbitals.windows(2).any(|w| w[1].energy < w[0].energy) {
         orbitals.sort_by(|a, b| a.energy.total_cmp(&b.energy));
         notes.push("the orbitals were renumbered in increasing energy".into());
