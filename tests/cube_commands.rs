@@ -342,3 +342,71 @@ fn inspect_report() {
     let text = ok(p, &["inspect", "bond.cube"]);
     assert!(text.contains("of ∫|f| dV") && !text.contains("±"), "{text}");
 }
+
+/// Hardening item 15: the sum's unit is stated on the comment line, an orbital added
+/// to a density draws a warning, and an existing name holding ':' and '#' is taken
+/// whole (units: bohr^-3/2 for orbitals, e/bohr^3 for densities — atomic units).
+#[test]
+fn combine_states_units_and_takes_odd_names() {
+    let d = setup();
+    let p = d.path();
+    ok(
+        p,
+        &[
+            "volume",
+            "h2.toml",
+            "--field",
+            "orbital:1",
+            "--spacing",
+            "0.15",
+            "--units",
+            "bohr",
+            "--padding",
+            "6",
+            "--out",
+            "psi.cube",
+        ],
+    );
+    let comment = |f: &str| {
+        fs::read_to_string(p.join(f))
+            .unwrap()
+            .lines()
+            .nth(1)
+            .unwrap()
+            .to_string()
+    };
+    let same = run(
+        p,
+        &[
+            "combine",
+            "--out",
+            "d.cube",
+            "bond.cube:1",
+            "anti.cube.gz:-1",
+        ],
+    );
+    assert!(String::from_utf8_lossy(&same.stderr).is_empty());
+    assert!(
+        comment("d.cube").contains("in e/bohr^3"),
+        "{}",
+        comment("d.cube")
+    );
+    let mixed = run(p, &["combine", "--out", "m.cube", "bond.cube", "psi.cube"]);
+    assert!(mixed.status.success());
+    let err = String::from_utf8_lossy(&mixed.stderr);
+    assert!(
+        err.starts_with("warning: ") && err.contains("different units"),
+        "{err}"
+    );
+    assert!(
+        comment("m.cube").contains("mixed units"),
+        "{}",
+        comment("m.cube")
+    );
+    fs::copy(p.join("bond.cube"), p.join("run:2#1.cube")).unwrap();
+    let odd = ok(p, &["combine", "--out", "o.cube", "run:2#1.cube"]);
+    assert!(odd.contains("+1×run:2#1.cube"), "{odd}");
+    // With a weight, the name is no existing file: the field and weight follow it.
+    let spelled = ok(p, &["combine", "--out", "o2.cube", "run:2#1.cube#1:-1"]);
+    assert!(spelled.contains("−1×run:2#1.cube"), "{spelled}");
+}

@@ -119,3 +119,38 @@ fn malformed_files_name_the_field() {
         assert!(!e.message.contains('\n'), "one line: {}", e.message);
     }
 }
+
+/// Hardening item 10: an orbital at occupation 0.7 counts 0.7 electrons, and a
+/// valence-only file of Ti and Fe (one doubly occupied orbital against a nuclear
+/// charge of 48) gets no invented charge in its title.
+#[test]
+fn fractional_occupations_and_partial_files_invent_no_charge() {
+    let d = tempfile::tempdir().unwrap();
+    let frac = r#"{"format": "lobecast-orbitals", "version": 1, "length_unit": "bohr", "energy_unit": "hartree",
+      "atoms": [{"element": "H", "atomic_number": 1, "position": [0.0, 0.0, -1.0]},
+                {"element": "H", "atomic_number": 1, "position": [0.0, 0.0, 1.0]}],
+      "basis": [{"atom": 0, "type": "gaussian", "powers": [0, 0, 0], "primitives": [[1.0, 1.0]]},
+                {"atom": 1, "type": "gaussian", "powers": [0, 0, 0], "primitives": [[1.0, 1.0]]}],
+      "orbitals": [{"energy": -0.5, "occupation": 0.7, "coefficients": [0.6, 0.6]}]}"#;
+    std::fs::write(d.path().join("frac.json"), frac).unwrap();
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_lobecast"))
+        .current_dir(d.path())
+        .args(["solve", "frac.json"])
+        .output()
+        .unwrap();
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert!(text.contains("0.7000 electron(s)"), "{text}");
+    let partial = frac
+        .replace(
+            r#""element": "H", "atomic_number": 1, "position": [0.0, 0.0, -1.0]"#,
+            r#""element": "Ti", "atomic_number": 22, "position": [0.0, 0.0, -2.0]"#,
+        )
+        .replace(
+            r#""element": "H", "atomic_number": 1, "position": [0.0, 0.0, 1.0]"#,
+            r#""element": "Fe", "atomic_number": 26, "position": [0.0, 0.0, 2.0]"#,
+        )
+        .replace("0.7", "2.0");
+    let set = parse(&partial, "p.json").unwrap();
+    assert_eq!(set.molecule.formula_with_charge(), "FeTi");
+    assert!(set.notes.iter().any(|n| n.contains("no charge is shown")));
+}
