@@ -6,6 +6,7 @@ mod common;
 mod curve;
 mod curve_charts;
 mod curve_report;
+pub mod field_scale;
 pub mod demo;
 mod inspect;
 mod profile;
