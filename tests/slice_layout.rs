@@ -125,7 +125,11 @@ fn single_map_of_a_field_zero_on_the_plane_is_refused() {
         "--png",
         out.to_str().unwrap(),
     ]);
-    assert!(ok.status.success(), "{}", String::from_utf8_lossy(&ok.stderr));
+    assert!(
+        ok.status.success(),
+        "{}",
+        String::from_utf8_lossy(&ok.stderr)
+    );
 }
 
 #[test]
@@ -148,9 +152,15 @@ fn panels_draw_a_field_zero_on_the_plane_blank() {
     ]);
     let text = String::from_utf8_lossy(&o.stdout);
     assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
-    let lines: Vec<&str> = text.lines().filter(|l| l.starts_with("  orbital")).collect();
+    let lines: Vec<&str> = text
+        .lines()
+        .filter(|l| l.starts_with("  orbital"))
+        .collect();
     assert_eq!(lines.len(), 2, "{text}");
-    assert!(lines[0].contains("zero on this plane, drawn blank"), "{text}");
+    assert!(
+        lines[0].contains("zero on this plane, drawn blank"),
+        "{text}"
+    );
     assert!(lines[1].contains("colour range"), "{text}");
     assert!(out.exists());
 }
@@ -182,7 +192,10 @@ fn a_blank_panel_is_one_uniform_zero_colour() {
         }
     }
     let total = (m.height / 7 + 1) * (m.width / 7 + 1);
-    assert!(differ * 100 < total, "{differ} of {total} pixels not zero-coloured");
+    assert!(
+        differ * 100 < total,
+        "{differ} of {total} pixels not zero-coloured"
+    );
     // The same noise with a largest |value| of 1e-15 is a real (tiny) field: drawn.
     let r2 = synthetic(1, w, Some(1e-15), &style, noise);
     assert_eq!(r2.blank, vec![false]);
@@ -281,7 +294,10 @@ fn profile_beyond_the_cube_box_leaves_cells_empty() {
     assert_eq!(last(rows[6]), "");
     for r in &rows[1..6] {
         let v: f64 = last(r).parse().unwrap();
-        assert!(v > 0.0, "inside the box the bonding orbital is positive: {r}");
+        assert!(
+            v > 0.0,
+            "inside the box the bonding orbital is positive: {r}"
+        );
     }
 }
 
@@ -303,7 +319,10 @@ fn missing_values_are_hatched_and_left_out_of_the_colour_range() {
     let r = synthetic(1, w, Some(0.3), &style, f);
     let m = &r.maps[0];
     let (lo, hi) = m.mapping.range();
-    assert!((hi - 0.3).abs() < 0.01 && (lo + hi).abs() < 1e-15, "{lo} {hi}");
+    assert!(
+        (hi - 0.3).abs() < 0.01 && (lo + hi).abs() < 1e-15,
+        "{lo} {hi}"
+    );
     // Right half: only the two hatch greys (r = g = b); left half: scale colours.
     let grey = |c: Colour| c.r == c.g && c.g == c.b;
     let y = m.height / 3;
@@ -312,7 +331,9 @@ fn missing_values_are_hatched_and_left_out_of_the_colour_range() {
         .collect();
     assert!(right.iter().all(|c| grey(*c)), "{:?}", &right[..4]);
     assert!(right.iter().any(|c| c.r < 200) && right.iter().any(|c| c.r > 200));
-    assert!(!grey(r.canvas.pixel(m.x + m.width / 2 - 3, m.y + m.height / 2)));
+    assert!(!grey(
+        r.canvas.pixel(m.x + m.width / 2 - 3, m.y + m.height / 2)
+    ));
 }
 
 // ---- item: many panels ----

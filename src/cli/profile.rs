@@ -186,7 +186,10 @@ pub fn run(args: ProfileArgs) -> Result<()> {
                     source.provenance()
                 )];
                 if values.iter().any(|v| v.is_nan()) {
-                    f.push("Gaps in a line: outside the cube's box, where the file holds no values.".into());
+                    f.push(
+                        "Gaps in a line: outside the cube's box, where the file holds no values."
+                            .into(),
+                    );
                 }
                 if super::slice::minimal_basis(&source) {
                     f.push(

@@ -63,7 +63,8 @@ pub fn draw(c: &mut Canvas, a: &Axes) -> Vec<LabelBox> {
     });
     let line = text::measure("0", a.font).height();
     let (vs, vd) = ticks::fitted(v0, v1, max_ticks(a.height), |t, _| {
-        t.windows(2).all(|p| y_of(p[0]) - y_of(p[1]) >= line + 0.3 * pad)
+        t.windows(2)
+            .all(|p| y_of(p[0]) - y_of(p[1]) >= line + 0.3 * pad)
     });
     let mut boxes = Vec::new();
     let yb = a.y + a.height;

@@ -258,7 +258,11 @@ pub fn render(
     assert_eq!(values.len(), n, "one set of values per panel");
     let peaks: Vec<f64> = values
         .iter()
-        .map(|v| v.iter().filter(|x| x.is_finite()).fold(0.0f64, |m, x| m.max(x.abs())))
+        .map(|v| {
+            v.iter()
+                .filter(|x| x.is_finite())
+                .fold(0.0f64, |m, x| m.max(x.abs()))
+        })
         .collect();
     let blank: Vec<bool> = fig
         .panels
