@@ -128,6 +128,7 @@ fn main() {
             plane: plane.clone(),
             window,
             nuclei: Vec::new(),
+            gap_note: String::new(),
             panels: (0..n)
                 .map(|_| Panel {
                     heading: "ψ".into(),
@@ -135,6 +136,7 @@ fn main() {
                     family: "ψ".into(),
                     unit: "bohr^{−3/2}".into(),
                     signed: true,
+                    largest: None,
                 })
                 .collect(),
         };

@@ -28,6 +28,7 @@ fn panel(signed: bool) -> Panel {
         family: "f".into(),
         unit: "bohr^{−3/2}".into(),
         signed,
+        largest: None,
     }
 }
 
@@ -45,6 +46,7 @@ fn draw(set: &OrbitalSet, fields: &[&str], window: Window, style: &Style) -> Ren
         plane,
         window,
         nuclei: Vec::new(),
+        gap_note: String::new(),
         panels: fields.iter().map(|f| panel(f.is_signed())).collect(),
     };
     let nf = fields.len();

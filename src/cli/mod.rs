@@ -7,6 +7,7 @@ mod curve;
 mod curve_charts;
 mod curve_report;
 pub mod demo;
+pub mod field_scale;
 mod inspect;
 mod profile;
 mod slice;

@@ -122,6 +122,13 @@ pub fn run(args: ProfileArgs) -> Result<()> {
     let nf = fields.len();
     let mut values = vec![0.0; points.len() * nf];
     sampler.evaluate(&points, &mut values);
+    if values.iter().all(|v| v.is_nan()) {
+        return Err(Error::input(format!(
+            "the line from {} to {} misses the cube's box: no sample has a value",
+            args.from, args.to
+        ))
+        .with_hint("choose end points, or a shorter --extend, inside the box"));
+    }
 
     let mut files = Vec::new();
     if let Some(slot) = csv_slot {
@@ -178,6 +185,12 @@ pub fn run(args: ProfileArgs) -> Result<()> {
                     bohr_to_angstrom(s[1] - s[0]),
                     source.provenance()
                 )];
+                if values.iter().any(|v| v.is_nan()) {
+                    f.push(
+                        "Gaps in a line: outside the cube's box, where the file holds no values."
+                            .into(),
+                    );
+                }
                 if super::slice::minimal_basis(&source) {
                     f.push(
                         "Minimal basis: shapes and signs are qualitative; energies are upper bounds."
@@ -249,7 +262,7 @@ pub fn parse_length(name: &str, text: &str, default: LengthUnit) -> Result<f64> 
 }
 
 /// Numbers are written in Rust's shortest round-trip form, so reading them back
-/// gives exactly the values computed.
+/// gives exactly the values computed; a sample without a value has an empty cell.
 fn csv(
     args: &ProfileArgs,
     line: &Line,
@@ -279,7 +292,12 @@ fn csv(
     for (i, (d, p)) in s.iter().zip(points).enumerate() {
         t += &format!("{d:e},{:e},{:e},{:e}", p[0], p[1], p[2]);
         for v in &values[i * nf..(i + 1) * nf] {
-            t += &format!(",{v:e}");
+            // No value (outside a cube's box): an empty cell.
+            if v.is_nan() {
+                t += ",";
+            } else {
+                t += &format!(",{v:e}");
+            }
         }
         t += "\n";
     }

@@ -14,7 +14,7 @@ use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::grid::plane::{Axis, PlaneSpec, Window};
 use crate::output::OutputPlan;
-use crate::render::slice::{Contours, Figure, Nucleus, Panel, Style, render};
+use crate::render::slice::{Contours, Figure, Nucleus, Panel, Rendered, Style, render};
 use crate::render::text::formula_markup;
 use crate::render::{Colour, Scale};
 
@@ -47,14 +47,15 @@ pub struct SliceArgs {
     /// atoms), or stored:K (the K-th field of a cube file)
     #[arg(long, required_unless_present = "panels", conflicts_with = "panels")]
     pub field: Option<String>,
-    /// Several fields side by side on the same plane, comma-separated (1 to 16)
+    /// Several fields side by side on the same plane, comma-separated (1 to 16); a
+    /// field that is zero on the plane is drawn as a blank panel
     #[arg(long, value_name = "FIELD,FIELD,…")]
     pub panels: Option<String>,
     /// Put all panels on one colour scale, so their magnitudes compare honestly
     #[arg(long, requires = "panels")]
     pub shared_scale: bool,
     /// Maps per row for --panels, 1 to the number of panels [default: all in one row
-    /// up to 3, else a square-ish grid, fewer per row when maps would get too small]
+    /// up to 3, else ⌈√n⌉ per row]
     #[arg(long, value_name = "N", allow_negative_numbers = true)]
     pub columns: Option<String>,
     /// xy, xz, yz (with @offset along the missing axis, in --units), atoms:I,J,K or atoms:I,J
@@ -103,8 +104,9 @@ pub struct SliceArgs {
     /// Title instead of the automatic one (^{…} raises, _{…} lowers)
     #[arg(long)]
     pub title: Option<String>,
-    /// Width of the figure in pixels, 200 to 10000 (panels that would get too small
-    /// wrap into more rows, or widen the figure when --columns is given)
+    /// Width of the figure in pixels, 200 to 10000. Every map is at least 300 px wide:
+    /// when the maps of a row would be narrower the figure is made wider. Text keeps
+    /// its pixel size, so a larger --size gives larger maps
     #[arg(
         long,
         value_name = "PIXELS",
@@ -217,6 +219,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
         );
     }
     let sampler = source.sampler(&fields)?;
+    let largest = super::field_scale::largest(&source, &sampler);
     let nuclei = molecule
         .atoms
         .iter()
@@ -269,14 +272,17 @@ pub fn run(args: SliceArgs) -> Result<()> {
         nuclei,
         panels: infos
             .iter()
-            .map(|i| Panel {
+            .zip(&largest)
+            .map(|(i, l)| Panel {
                 heading: i.short.clone(),
                 quantity: i.quantity.clone(),
                 family: i.family.clone(),
                 unit: i.unit.clone(),
                 signed: i.signed,
+                largest: Some(*l),
             })
             .collect(),
+        gap_note: "Hatched: outside the cube's box, where the file holds no values.".to_string(),
     };
     let style = Style {
         width: size,
@@ -303,6 +309,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
             .map(|k| all.iter().skip(k).step_by(nf).copied().collect())
             .collect()
     })?;
+    refuse_empty(&rendered, &fields, &figure, &largest)?;
     let mut out = plan.open()?;
     out.put(png_slot, &rendered.canvas.encode_png()?)?;
     let written = out.commit()?.remove(0);
@@ -322,11 +329,46 @@ pub fn run(args: SliceArgs) -> Result<()> {
         samples as f64 / eval_seconds.max(1e-9) / 1e6,
         started.elapsed().as_secs_f64()
     );
-    for (info, m) in infos.iter().zip(&rendered.maps) {
-        let (lo, hi) = m.mapping.range();
-        say!("  {}: colour range {lo:.6e} to {hi:.6e}", info.plain);
+    for (k, (info, m)) in infos.iter().zip(&rendered.maps).enumerate() {
+        if rendered.blank[k] {
+            say!("  {}: zero on this plane, drawn blank", info.plain);
+        } else {
+            let (lo, hi) = m.mapping.range();
+            say!("  {}: colour range {lo:.6e} to {hi:.6e}", info.plain);
+        }
     }
     print_notes(&source.notes())?;
+    Ok(())
+}
+
+/// Refuses a figure that would show nothing: a plane that misses a cube's box, or a
+/// single field that is zero on the plane (panels draw such a field blank instead).
+fn refuse_empty(r: &Rendered, fields: &[Field], fig: &Figure, largest: &[f64]) -> Result<()> {
+    let plane = &fig.plane.description;
+    if r.values.iter().flatten().all(|v| v.is_nan()) {
+        return Err(Error::input(format!(
+            "the {plane} misses the cube's box: no point of the map has a value"
+        ))
+        .with_hint("choose a plane offset, or an --extent, inside the box"));
+    }
+    if let [true] = r.blank[..] {
+        if largest[0] == 0.0 {
+            return Err(Error::input(format!(
+                "{} is zero everywhere in this source: there is nothing to draw",
+                fields[0]
+            )));
+        }
+        let ratio = r.peaks[0] / largest[0];
+        let why = match fields[0] {
+            Field::Orbital(_) | Field::OrbitalDensity(_) => "the orbital has a node in this plane",
+            _ => "the field vanishes on this plane",
+        };
+        return Err(Error::input(format!(
+            "{} is zero on the {plane}: its largest |value| on the map is {:.1e}, {ratio:.1e} of its largest |value| in space",
+            fields[0], r.peaks[0]
+        ))
+        .with_hint(format!("{why}; choose another plane, or an offset from it")));
+    }
     Ok(())
 }
 

@@ -4,7 +4,8 @@
 //! Plug-in point: a new kind of input is one more `Source` variant, one more arm in
 //! `load`, `molecule`, `sampler`, `info` and `provenance`, and one `Sampler` variant
 //! whose `evaluate` fills the values. Model and orbital files give exact values;
-//! cube files are interpolated trilinearly (`cube::Volume::value_at`).
+//! cube files are interpolated trilinearly (`cube::Volume::value_at`) and give NaN,
+//! "no data", outside their box.
 
 use std::path::{Path, PathBuf};
 
@@ -40,6 +41,14 @@ pub enum Sampler<'a> {
 }
 
 impl Sampler<'_> {
+    /// How many values each point gets.
+    pub fn fields(&self) -> usize {
+        match self {
+            Sampler::Orbitals(s) => s.field_count(),
+            Sampler::Volume(_, f) => f.len(),
+        }
+    }
+
     pub fn evaluate(&self, points: &[[f64; 3]], out: &mut [f64]) {
         match self {
             Sampler::Orbitals(s) => s.evaluate(points, out),
@@ -47,8 +56,9 @@ impl Sampler<'_> {
                 let nf = fields.len();
                 for (p, vals) in points.iter().zip(out.chunks_exact_mut(nf)) {
                     for (o, &f) in vals.iter_mut().zip(fields) {
-                        // Outside the cube's box there is no value: drawn as zero.
-                        *o = v.value_at(f, *p).unwrap_or(0.0);
+                        // Outside the cube's box there is no value: NaN, which
+                        // figures hatch and CSV files leave empty.
+                        *o = v.value_at(f, *p).unwrap_or(f64::NAN);
                     }
                 }
             }
@@ -114,6 +124,11 @@ impl Source {
         }
     }
 
+    /// Whether values can be missing (NaN): a cube file has none outside its box.
+    pub fn has_box(&self) -> bool {
+        matches!(self, Source::Volume { .. })
+    }
+
     pub fn molecule(&self) -> &Molecule {
         match self {
             Source::Orbitals { set, .. } => &set.molecule,
@@ -146,7 +161,7 @@ impl Source {
                 )
             }
             Source::Volume { inputs, .. } => format!(
-                "values of the cube file {} interpolated trilinearly between its points (zero outside its box)",
+                "values of the cube file {} interpolated trilinearly between its points (no values outside its box)",
                 inputs[0].display()
             ),
         }

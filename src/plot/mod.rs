@@ -41,6 +41,9 @@ pub(crate) struct Sizes {
     pub thin: u32,
 }
 
+/// Chart text is never scaled below this fraction of its size at 1000 px.
+pub const MIN_TEXT_SCALE: f32 = 0.75;
+
 impl Sizes {
     /// Room above the chart for the title.
     pub fn margin_top(&self) -> f32 {
@@ -50,7 +53,7 @@ impl Sizes {
     pub fn new(width: u32) -> Self {
         let k = width as f32 / 1000.0;
         // Text keeps a readable minimum size in small charts.
-        let kt = k.max(crate::render::slice::MIN_TEXT_SCALE * SUPERSAMPLE as f32);
+        let kt = k.max(MIN_TEXT_SCALE * SUPERSAMPLE as f32);
         Sizes {
             k,
             title: 23.0 * kt,

@@ -102,14 +102,19 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
         for (i, s) in p.series.iter().enumerate() {
             let colour = PALETTE[i % PALETTE.len()];
             let style = ShapeStyle::from(&colour).stroke_width(z.line);
+            // One line per run of samples with values: the line breaks at gaps (NaN).
+            let mut runs = runs(p.s, s.values).into_iter();
+            let first = runs.next().unwrap_or_default();
             chart
-                .draw_series(LineSeries::new(
-                    p.s.iter().copied().zip(s.values.iter().copied()),
-                    style,
-                ))
+                .draw_series(LineSeries::new(first, style))
                 .map_err(plot_error)?
                 .label(s.label.as_str())
                 .legend(move |(x, y)| PathElement::new([(x, y), (x + legend, y)], style));
+            for run in runs {
+                chart
+                    .draw_series(LineSeries::new(run, style))
+                    .map_err(plot_error)?;
+            }
         }
         if p.series.len() > 1 {
             chart
@@ -137,6 +142,20 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
     }
     finish(&mut canvas, &p.title, &p.footnotes, &z);
     Ok(canvas.downsample(SUPERSAMPLE))
+}
+
+/// The points of a series split into runs of finite values.
+fn runs(s: &[f64], values: &[f64]) -> Vec<Vec<(f64, f64)>> {
+    let mut out: Vec<Vec<(f64, f64)>> = vec![Vec::new()];
+    for (x, y) in s.iter().zip(values) {
+        if y.is_finite() {
+            out.last_mut().expect("never empty").push((*x, *y));
+        } else if !out.last().expect("never empty").is_empty() {
+            out.push(Vec::new());
+        }
+    }
+    out.retain(|r| !r.is_empty());
+    out
 }
 
 /// Title at the top and footnotes at the bottom, in our own text.

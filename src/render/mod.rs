@@ -6,6 +6,7 @@ pub mod axes;
 pub mod canvas;
 pub mod colorbar;
 pub mod contour;
+pub mod nuclei;
 pub mod scale;
 pub mod slice;
 pub mod text;

@@ -5,10 +5,11 @@
 use crate::error::{Error, Result};
 use crate::grid::plane::{PixelGrid, Plane, Window};
 
-use super::axes::{self, Axes};
+use super::axes::{self, Axes, LabelBox};
 use super::canvas::{Canvas, Colour, HAlign, VAlign};
 use super::colorbar::{self, Bar};
 use super::contour::{self, Grid};
+use super::nuclei;
 use super::scale::{Kind, Mapping, Scale, mapping_for};
 use super::text;
 
@@ -23,6 +24,9 @@ pub struct Panel {
     pub family: String,
     pub unit: String,
     pub signed: bool,
+    /// The field's largest |value| anywhere, when known: a map at or below
+    /// `ZERO_RATIO` of it is drawn blank (the plane is a node of the field).
+    pub largest: Option<f64>,
 }
 
 /// A nucleus as the figure shows it.
@@ -47,6 +51,8 @@ pub struct Figure {
     pub window: Window,
     pub nuclei: Vec<Nucleus>,
     pub panels: Vec<Panel>,
+    /// Footnote added when some samples have no value (NaN): they are hatched.
+    pub gap_note: String,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -58,7 +64,8 @@ pub enum Contours {
 
 #[derive(Debug, Clone)]
 pub struct Style {
-    /// Width of the whole figure in pixels; everything scales with it.
+    /// Width of the whole figure in pixels, widened when maps would get narrower
+    /// than `MIN_MAP`; text and margins keep their pixel sizes.
     pub width: u32,
     pub background: Colour,
     /// `None`: the default for each field's sign.
@@ -70,7 +77,7 @@ pub struct Style {
     pub nuclei: bool,
     pub numbers: bool,
     pub shared_scale: bool,
-    /// Maps per row; 0 picks one.
+    /// Maps per row; 0 picks one (`columns_for`).
     pub columns: usize,
 }
 
@@ -106,16 +113,28 @@ pub struct Rendered {
     pub grid: PixelGrid,
     pub maps: Vec<Placed>,
     pub bars: Vec<Placed>,
-    /// The sampled values of each panel, row-major (row 0 at the top).
+    /// The sampled values of each panel, row-major (row 0 at the top); NaN where the
+    /// source has no value.
     pub values: Vec<Vec<f64>>,
+    /// The largest finite |value| of each map (0 when it has none).
+    pub peaks: Vec<f64>,
+    /// Panels drawn blank because their field is zero on the plane.
+    pub blank: Vec<bool>,
+    /// The tick-label boxes of each map's axes, for layout checks.
+    pub labels: Vec<Vec<LabelBox>>,
 }
 
-/// Text is never scaled below this fraction of its size at 1000 px.
-pub const MIN_TEXT_SCALE: f32 = 0.75;
+/// A map whose largest |value| is at most this fraction of the field's largest |value|
+/// in space is zero on the plane up to rounding (double precision leaves about
+/// 1e-16 of the terms summed; 1e-12 is far above that and far below any real lobe).
+pub const ZERO_RATIO: f64 = 1e-12;
 
-/// Sizes in pixels at a figure width of 1000; multiplied by width/1000.
+/// Maps are never narrower than this (px): the figure grows instead.
+pub const MIN_MAP: f32 = 300.0;
+
+/// Sizes in pixels, fixed whatever the figure's width: a wider figure gets larger
+/// maps, not larger letters.
 struct Sizes {
-    k: f32,
     title: f32,
     heading: f32,
     font: f32,
@@ -128,29 +147,28 @@ struct Sizes {
 }
 
 impl Sizes {
-    fn new(width: u32) -> Self {
-        let k = width as f32 / 1000.0;
-        // Text keeps a readable minimum size in small figures.
-        let kt = k.max(MIN_TEXT_SCALE);
-        let font = 17.0 * kt;
+    fn new() -> Self {
+        let font = 17.0;
         // Room left of a map for tick labels and the axis name; the bar's room holds
         // the gap, the bar, ticks, labels like "−0.3183" and the turned unit line.
         let label = text::measure("−00.00", font).width;
         let bar_labels = text::measure("−0.0000", font).width;
         Sizes {
-            k,
-            title: 24.0 * kt,
-            heading: 19.0 * kt,
+            title: 24.0,
+            heading: 19.0,
             font,
-            foot: 14.0 * kt,
-            margin: 18.0 * k,
-            left: label + 6.0 * k + 3.0 * k + 6.0 * k + 1.5 * 1.1 * font,
-            bottom: 6.0 * k + 2.0 * k + 1.35 * font + 4.0 * k + 1.4 * 1.1 * font + 8.0 * k,
-            bar: 22.0 * k + 22.0 * k + 8.0 * k + bar_labels + 0.6 * font + 1.4 * 1.1 * font,
-            gap: 28.0 * k,
+            foot: 14.0,
+            margin: 18.0,
+            left: label + 15.0 + 1.5 * 1.1 * font,
+            bottom: 20.0 + 1.35 * font + 1.4 * 1.1 * font,
+            bar: BAR_GAP + BAR_WIDTH + 8.0 + bar_labels + 0.6 * font + 1.4 * 1.1 * font,
+            gap: 28.0,
         }
     }
 }
+
+const BAR_GAP: f32 = 22.0;
+const BAR_WIDTH: f32 = 22.0;
 
 fn check(fig: &Figure, style: &Style) -> Result<()> {
     if fig.panels.is_empty() {
@@ -194,38 +212,34 @@ fn check(fig: &Figure, style: &Style) -> Result<()> {
     Ok(())
 }
 
+/// Maps per row: all in one row up to three, else a near-square grid (⌈√n⌉ columns).
+pub fn columns_for(n: usize, asked: usize) -> usize {
+    match asked {
+        0 if n <= 3 => n,
+        0 => (n as f64).sqrt().ceil() as usize,
+        c => c.min(n),
+    }
+}
+
 /// Lays the figure out, asks `sample` for the values of every panel at the map's
-/// pixel centres (one `Vec` per panel, row-major), and draws it.
+/// pixel centres (one `Vec` per panel, row-major), and draws it. The figure is
+/// `style.width` wide, or wider when that would leave maps under `MIN_MAP` pixels.
 pub fn render(
     fig: &Figure,
     style: &Style,
     sample: impl FnOnce(&PixelGrid) -> Vec<Vec<f64>>,
 ) -> Result<Rendered> {
     check(fig, style)?;
-    let s = Sizes::new(style.width);
+    let s = Sizes::new();
     let n = fig.panels.len();
-    let cols = match style.columns {
-        0 if n <= 3 => n,
-        0 => (n as f64).sqrt().ceil() as usize,
-        c => c.min(n),
-    };
+    let cols = columns_for(n, style.columns);
     let rows = n.div_ceil(cols);
     let own_bars = !style.shared_scale;
     let cell_extra = s.left + if own_bars { s.bar } else { 0.0 };
     let shared = if own_bars { 0.0 } else { s.bar };
-    let avail = style.width as f32
-        - 2.0 * s.margin
-        - shared
-        - cols as f32 * cell_extra
-        - (cols as f32 - 1.0) * s.gap;
-    let map_w = avail / cols as f32;
-    if map_w < 60.0 {
-        return Err(Error::input(format!(
-            "--size {} leaves no room for {n} maps",
-            style.width
-        ))
-        .with_hint("raise --size or set fewer --columns"));
-    }
+    let fixed = 2.0 * s.margin + shared + cols as f32 * cell_extra + (cols as f32 - 1.0) * s.gap;
+    let width = (style.width as f32).max((fixed + cols as f32 * MIN_MAP).ceil());
+    let map_w = (width - fixed) / cols as f32;
     let nx = map_w.floor() as usize;
     let ny = ((nx as f64) * fig.window.height() / fig.window.width())
         .round()
@@ -234,18 +248,6 @@ pub fn render(
         return Err(Error::input("the window is too tall for its width")
             .with_hint("give --extent W,H with a less extreme ratio"));
     }
-    let title_lines = fit_title(&fig.title, s.title, style.width as f32 - 2.0 * s.margin);
-    let head = if n > 1 { 1.6 * s.heading } else { 0.0 };
-    let top = s.margin + title_lines.len() as f32 * 1.3 * s.title + 10.0 * s.k;
-    let row_h = head + ny as f32 + s.bottom;
-    let foot_lines: Vec<String> = fig
-        .footnotes
-        .iter()
-        .flat_map(|f| text::wrap(f, s.foot, style.width as f32 - 2.0 * s.margin))
-        .collect();
-    let foot_h = foot_lines.len() as f32 * 1.35 * s.foot;
-    let height = (top + rows as f32 * row_h + foot_h + s.margin).ceil() as u32;
-
     let grid = PixelGrid {
         plane: fig.plane.clone(),
         window: fig.window,
@@ -254,17 +256,58 @@ pub fn render(
     };
     let values = sample(&grid);
     assert_eq!(values.len(), n, "one set of values per panel");
-    let mut c = Canvas::new(style.width, height, style.background);
+    let peaks: Vec<f64> = values
+        .iter()
+        .map(|v| {
+            v.iter()
+                .filter(|x| x.is_finite())
+                .fold(0.0f64, |m, x| m.max(x.abs()))
+        })
+        .collect();
+    let blank: Vec<bool> = fig
+        .panels
+        .iter()
+        .zip(&peaks)
+        .map(|(p, peak)| p.largest.is_some_and(|l| *peak <= ZERO_RATIO * l))
+        .collect();
+    let gaps = values.iter().flatten().any(|v| v.is_nan());
+
+    let title_lines = fit_title(&fig.title, s.title, width - 2.0 * s.margin);
+    let head = if n > 1 { 1.6 * s.heading } else { 0.0 };
+    let top = s.margin + title_lines.len() as f32 * 1.3 * s.title + 10.0;
+    let row_h = head + ny as f32 + s.bottom;
+    let mut notes = fig.footnotes.clone();
+    if blank.iter().any(|b| *b) {
+        notes.push(format!(
+            "Blank panels: the field is zero on this plane up to rounding (largest |value| on the map at most {ZERO_RATIO:e} of its largest |value| in space); they show the zero colour without contours or colour bar."
+        ));
+    }
+    if gaps {
+        notes.push(fig.gap_note.clone());
+    }
+    let foot_lines: Vec<String> = notes
+        .iter()
+        .flat_map(|f| text::wrap(f, s.foot, width - 2.0 * s.margin))
+        .collect();
+    let foot_h = foot_lines.len() as f32 * 1.35 * s.foot;
+    let height = (top + rows as f32 * row_h + foot_h + s.margin).ceil() as u32;
+    let mut c = Canvas::new(width as u32, height, style.background);
 
     let scale_for = |p: &Panel| style.scale.unwrap_or_else(|| Scale::default_for(p.signed));
     let log = |p: &Panel| if p.signed { None } else { style.log_decades };
     let shared_mapping = style.shared_scale.then(|| {
-        let all: Vec<f64> = values.iter().flatten().copied().collect();
+        let all: Vec<f64> = values
+            .iter()
+            .zip(&blank)
+            .filter(|(_, b)| !**b)
+            .flat_map(|(v, _)| v.iter().copied())
+            .collect();
         mapping_for(&all, fig.panels[0].signed, log(&fig.panels[0]))
     });
 
     let mut maps = Vec::new();
     let mut bars = Vec::new();
+    let mut labels = Vec::new();
     let mut levels_seen = Vec::new();
     for (i, (panel, vals)) in fig.panels.iter().zip(&values).enumerate() {
         let (col, row) = (i % cols, i / cols);
@@ -273,20 +316,44 @@ pub fn render(
         let my = (top + row as f32 * row_h + head).round();
         let scale = scale_for(panel);
         let mapping = shared_mapping.unwrap_or_else(|| mapping_for(vals, panel.signed, log(panel)));
+        let zero = scale.at(mapping.t(0.0));
         let pixels: Vec<[u8; 3]> = vals
             .iter()
-            .map(|v| {
-                let col = scale.at(mapping.t(*v));
+            .enumerate()
+            .map(|(k, v)| {
+                let col = if v.is_nan() {
+                    hatch(k % nx, k / nx)
+                } else if blank[i] {
+                    zero
+                } else {
+                    scale.at(mapping.t(*v))
+                };
                 [col.r, col.g, col.b]
             })
             .collect();
         c.put_pixels(mx as u32, my as u32, nx as u32, &pixels);
-        let levels = levels_for(&style.contours, &mapping, panel.signed);
-        draw_contours(&mut c, vals, nx, ny, (mx, my), &levels, style, s.k);
-        if style.nuclei {
-            draw_nuclei(&mut c, &grid, &fig.nuclei, (mx, my), style.numbers, &s);
+        let levels = if blank[i] {
+            Vec::new()
+        } else {
+            levels_for(&style.contours, &mapping, panel.signed)
+        };
+        if !blank[i] {
+            draw_contours(&mut c, vals, nx, ny, (mx, my), &levels, style);
         }
-        axes::draw(
+        if style.nuclei {
+            nuclei::draw(&mut c, &grid, &fig.nuclei, (mx, my), style.numbers);
+        }
+        if blank[i] {
+            c.text(
+                "zero on this plane",
+                s.heading,
+                mx + nx as f32 / 2.0,
+                my + 0.12 * ny as f32,
+                (HAlign::Centre, VAlign::Middle),
+                Colour::INK,
+            );
+        }
+        labels.push(axes::draw(
             &mut c,
             &Axes {
                 x: mx,
@@ -297,9 +364,8 @@ pub fn render(
                 u_label: &fig.plane.u_label,
                 v_label: &fig.plane.v_label,
                 font: s.font,
-                k: s.k,
             },
-        );
+        ));
         if n > 1 {
             let hx = mx + nx as f32 / 2.0;
             let room = (cell_extra - s.left + map_w).max(map_w);
@@ -319,8 +385,8 @@ pub fn render(
             height: ny as u32,
             mapping,
         });
-        if own_bars {
-            let bx = mx + nx as f32 + 22.0 * s.k;
+        if own_bars && !blank[i] {
+            let bx = mx + nx as f32 + BAR_GAP;
             bars.push(draw_bar(
                 &mut c,
                 (bx, my, ny as f32),
@@ -330,14 +396,14 @@ pub fn render(
                 &levels,
                 &s,
             ));
-        } else {
+        } else if !blank[i] {
             levels_seen = levels;
         }
     }
     if let Some(mapping) = shared_mapping {
         let last_col = cols.min(n) - 1;
         let cell_x = s.margin + last_col as f32 * (cell_extra + map_w + s.gap);
-        let bx = cell_x + s.left + map_w.floor() + 22.0 * s.k;
+        let bx = cell_x + s.left + map_w.floor() + BAR_GAP;
         let by = (top + head).round();
         let bh = (rows - 1) as f32 * row_h + ny as f32;
         let panel = &fig.panels[0];
@@ -365,7 +431,7 @@ pub fn render(
         c.text(
             line,
             s.title,
-            style.width as f32 / 2.0,
+            width / 2.0,
             y,
             (HAlign::Centre, VAlign::Top),
             Colour::INK,
@@ -389,7 +455,20 @@ pub fn render(
         maps,
         bars,
         values,
+        peaks,
+        blank,
+        labels,
     })
+}
+
+/// Where a map has no value: light grey with darker diagonal stripes every 8 px, a
+/// texture no colour scale contains.
+fn hatch(x: usize, y: usize) -> Colour {
+    if (x + y) % 8 < 2 {
+        Colour::rgb(160, 160, 160)
+    } else {
+        Colour::rgb(228, 228, 228)
+    }
 }
 
 fn draw_bar(
@@ -401,7 +480,7 @@ fn draw_bar(
     levels: &[f64],
     s: &Sizes,
 ) -> Placed {
-    let width = (22.0 * s.k).round();
+    let width = BAR_WIDTH;
     colorbar::draw(
         c,
         &Bar {
@@ -415,7 +494,7 @@ fn draw_bar(
             unit: &panel.unit,
             levels,
             font: s.font,
-            k: s.k,
+            k: 1.0,
         },
     );
     Placed {
@@ -478,11 +557,10 @@ fn draw_contours(
     (mx, my): (f32, f32),
     levels: &[f64],
     style: &Style,
-    k: f32,
 ) {
     let grid = Grid { values, nx, ny };
-    let lw = (1.3 * k).max(1.0);
-    let dash = [6.0 * k, 4.0 * k];
+    let lw = 1.3;
+    let dash = [6.0, 4.0];
     let mut all: Vec<(f64, bool)> = levels.iter().map(|l| (*l, false)).collect();
     if style.zero_contour {
         all.push((0.0, true));
@@ -512,66 +590,6 @@ fn draw_contours(
             } else {
                 c.stroke(&pts, lw, Colour::INK.with_alpha(220), None);
             }
-        }
-    }
-}
-
-fn draw_nuclei(
-    c: &mut Canvas,
-    grid: &PixelGrid,
-    nuclei: &[Nucleus],
-    (mx, my): (f32, f32),
-    numbers: bool,
-    s: &Sizes,
-) {
-    // Far atoms first, so near ones are drawn over them.
-    let mut order: Vec<&Nucleus> = nuclei.iter().collect();
-    order.sort_by_key(|n| n.near);
-    for n in order {
-        let (px, py) = grid.to_pixel(n.u, n.v);
-        let (x, y) = (mx + px as f32 + 0.5, my + py as f32 + 0.5);
-        if px < 0.0 || py < 0.0 || px > grid.nx as f64 - 1.0 || py > grid.ny as f64 - 1.0 {
-            continue;
-        }
-        let (r, size, ink, fill, lw) = if n.near {
-            (
-                11.0 * s.k,
-                15.0 * s.k,
-                Colour::INK,
-                Colour::WHITE,
-                1.6 * s.k,
-            )
-        } else {
-            (
-                8.0 * s.k,
-                11.0 * s.k,
-                Colour::GREY,
-                Colour::WHITE.with_alpha(150),
-                1.0 * s.k,
-            )
-        };
-        c.circle(x, y, r, fill, ink, lw.max(1.0));
-        c.text(&n.symbol, size, x, y, (HAlign::Centre, VAlign::Middle), ink);
-        if numbers {
-            let t = n.number.to_string();
-            let tx = x + 0.8 * r;
-            let ty = y - 0.8 * r;
-            let e = text::measure(&t, 0.8 * size);
-            c.fill_rect(
-                tx - 1.0,
-                ty - e.ascent,
-                e.width + 2.0,
-                e.height(),
-                Colour::WHITE.with_alpha(200),
-            );
-            c.text(
-                &t,
-                0.8 * size,
-                tx,
-                ty,
-                (HAlign::Left, VAlign::Baseline),
-                ink,
-            );
         }
     }
 }

@@ -28,6 +28,33 @@ pub fn nice(lo: f64, hi: f64, target: usize) -> Vec<f64> {
         .collect()
 }
 
+/// The densest nice ticks (at most `max_target` intervals, at least 2) whose labels
+/// `fits` accepts; labels are measured, not guessed from the length, so they never
+/// overlap however small the map. Returns the ticks and their decimal places.
+pub fn fitted(
+    lo: f64,
+    hi: f64,
+    max_target: usize,
+    fits: impl Fn(&[f64], usize) -> bool,
+) -> (Vec<f64>, usize) {
+    let mut last = (vec![lo], 2);
+    for target in (2..=max_target.max(2)).rev() {
+        let t = nice(lo, hi, target);
+        let d = decimals(if t.len() > 1 { t[1] - t[0] } else { 1.0 });
+        if fits(&t, d) {
+            return (t, d);
+        }
+        last = (t, d);
+    }
+    // Even two intervals crowd: keep only the two ends of the last try.
+    let (t, d) = last;
+    let ends = match (t.first(), t.last()) {
+        (Some(a), Some(b)) if t.len() > 2 => vec![*a, *b],
+        _ => t,
+    };
+    (ends, d)
+}
+
 /// Powers of ten inside [lo, hi] (both positive), for logarithmic bars.
 pub fn decades(lo: f64, hi: f64) -> Vec<f64> {
     let a = (lo.log10() - 1e-9).ceil() as i32;
