@@ -186,13 +186,21 @@ impl Source {
             Source::Volume { volume, .. } => {
                 let k = stored_index(volume, field)?;
                 let signed = volume.field_values(k).any(|v| v < 0.0);
+                // lobecast's own cubes name each field's unit on the comment line.
+                let info = &volume.info;
+                let (unit, plain_unit) =
+                    match crate::cube::arith::stored_units(&info.header.comment, info.fields)[k] {
+                        Some("bohr^-3/2") => ("bohr^{−3/2}", "bohr^-3/2"),
+                        Some(_) => ("e bohr^{−3}", "e/bohr^3"),
+                        None => ("units of the file", "units of the file"),
+                    };
                 Ok(FieldInfo {
                     heading: format!("stored field {} of the cube file", k + 1),
                     quantity: format!("f_{{{}}}", k + 1),
                     family: "f".into(),
                     short: format!("f_{{{}}}", k + 1),
-                    unit: "units of the file".into(),
-                    plain: format!("stored field {} (units of the file)", k + 1),
+                    unit: unit.into(),
+                    plain: format!("stored field {} ({plain_unit})", k + 1),
                     signed,
                 })
             }
