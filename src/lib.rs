@@ -16,6 +16,7 @@ pub mod grid;
 pub mod integrals;
 pub mod io;
 pub mod model;
+pub mod numerics;
 pub mod output;
 pub mod plot;
 pub mod render;

@@ -7,32 +7,7 @@ use std::f64::consts::PI;
 
 use lobecast::basis::harmonics::cartesian_components;
 use lobecast::basis::{Angular, GaussianShell, SlaterShell};
-
-/// Gauss–Legendre nodes and weights on [−1, 1] by Newton iteration on P_n (a textbook
-/// method; common practice).
-fn gauss_legendre(n: usize) -> Vec<(f64, f64)> {
-    (0..n)
-        .map(|i| {
-            let mut x = (PI * (i as f64 + 0.75) / (n as f64 + 0.5)).cos();
-            let mut dp = 1.0;
-            for _ in 0..100 {
-                let (mut p0, mut p1) = (1.0, x);
-                for k in 2..=n {
-                    let p2 = ((2 * k - 1) as f64 * x * p1 - (k - 1) as f64 * p0) / k as f64;
-                    p0 = p1;
-                    p1 = p2;
-                }
-                dp = n as f64 * (x * p1 - p0) / (x * x - 1.0);
-                let dx = p1 / dp;
-                x -= dx;
-                if dx.abs() < 1e-16 {
-                    break;
-                }
-            }
-            (x, 2.0 / ((1.0 - x * x) * dp * dp))
-        })
-        .collect()
-}
+use lobecast::numerics::quadrature::gauss_legendre;
 
 /// Points and weights of a product rule in spherical coordinates around the origin:
 /// radial Gauss–Legendre on [0, r_max] in panels, Gauss–Legendre in cos θ, uniform φ.

@@ -6,34 +6,9 @@ use lobecast::integrals::boys::boys;
 use lobecast::integrals::gaussian::{
     CartesianShell, cartesian_components, kinetic_block, nuclear_block, overlap_block,
 };
+use lobecast::numerics::quadrature::gauss_legendre;
 
 // ---------------------------------------------------------------- quadrature tools
-
-/// Gauss–Legendre nodes and weights on [−1, 1] by Newton's method on the Legendre
-/// recurrence (common practice).
-fn gauss_legendre(n: usize) -> Vec<(f64, f64)> {
-    (0..n)
-        .map(|k| {
-            let mut x = (std::f64::consts::PI * (k as f64 + 0.75) / (n as f64 + 0.5)).cos();
-            let mut dp = 0.0;
-            for _ in 0..100 {
-                let (mut p0, mut p1) = (1.0, x);
-                for m in 2..=n {
-                    let p2 = ((2 * m - 1) as f64 * x * p1 - (m - 1) as f64 * p0) / m as f64;
-                    p0 = p1;
-                    p1 = p2;
-                }
-                dp = n as f64 * (x * p1 - p0) / (x * x - 1.0);
-                let dx = p1 / dp;
-                x -= dx;
-                if dx.abs() < 1e-17 {
-                    break;
-                }
-            }
-            (x, 2.0 / ((1.0 - x * x) * dp * dp))
-        })
-        .collect()
-}
 
 /// Nodes and weights of `panels` equal Gauss–Legendre panels over [lo, hi].
 fn composite(rule: &[(f64, f64)], lo: f64, hi: f64, panels: usize) -> Vec<(f64, f64)> {

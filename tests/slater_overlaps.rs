@@ -6,9 +6,9 @@
 use std::f64::consts::PI;
 
 use lobecast::basis::{Basis, Shell, SlaterShell};
-use lobecast::integrals::quadrature::gauss_legendre;
 use lobecast::integrals::slater_overlap::{bond_frame, shell_pair};
 use lobecast::integrals::slater_overlap_matrix;
+use lobecast::numerics::quadrature::gauss_legendre;
 
 /// Closed forms for equal exponents, p = ζR (R. S. Mulliken, C. A. Rieke, D. Orloff,
 /// H. Orloff, J. Chem. Phys. 17, 1248 (1949); from memory). Their pσ functions point

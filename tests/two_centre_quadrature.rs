@@ -11,37 +11,9 @@
 //! (λ²−μ²)(1/rA + 1/rB) = 4λ/R, and, with r̂A·r̂B = (rA²+rB²−R²)/(2 rA rB),
 //! (λ²−μ²) r̂A·r̂B = λ² + μ² − 2. Every integrand below is smooth (analytic).
 
-use std::f64::consts::PI;
 
 use lobecast::integrals::two_centre::{TwoCentre1s, two_centre_1s};
-
-/// Gauss–Legendre nodes and weights on [−1, 1]: Newton iteration on P_n, started
-/// from the usual cosine estimate of the roots.
-fn gauss_legendre(n: usize) -> Vec<(f64, f64)> {
-    // (P_n(x), P_n'(x)) by the three-term recurrence.
-    let legendre = |x: f64| {
-        let (mut p0, mut p1) = (1.0, x);
-        for k in 1..n {
-            let k = k as f64;
-            (p0, p1) = (p1, ((2.0 * k + 1.0) * x * p1 - k * p0) / (k + 1.0));
-        }
-        (p1, n as f64 * (x * p1 - p0) / (x * x - 1.0))
-    };
-    (0..n)
-        .map(|i| {
-            let mut x = (PI * (i as f64 + 0.75) / (n as f64 + 0.5)).cos();
-            for _ in 0..100 {
-                let (p, dp) = legendre(x);
-                x -= p / dp;
-                if (p / dp).abs() < 1e-15 {
-                    break;
-                }
-            }
-            let dp = legendre(x).1;
-            (x, 2.0 / ((1.0 - x * x) * dp * dp))
-        })
-        .collect()
-}
+use lobecast::numerics::quadrature::gauss_legendre;
 
 /// Composite rule: `panels` equal panels on [a, b], each with the rule `gl`.
 fn composite(a: f64, b: f64, panels: usize, gl: &[(f64, f64)]) -> Vec<(f64, f64)> {

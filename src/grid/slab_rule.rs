@@ -11,7 +11,7 @@
 
 use std::f64::consts::PI;
 
-use crate::integrals::quadrature::gauss_legendre;
+use crate::numerics::quadrature::gauss_legendre;
 
 /// Nodes and weights on [a, b] from panels whose edges are `edges` (increasing).
 fn panels(edges: &[f64], rule: &[(f64, f64)]) -> Vec<(f64, f64)> {

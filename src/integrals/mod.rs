@@ -5,7 +5,6 @@ pub mod assemble;
 pub mod boys;
 pub mod gaussian;
 pub mod hermite;
-pub mod quadrature;
 pub mod slater_overlap;
 pub mod two_centre;
 

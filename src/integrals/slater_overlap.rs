@@ -15,10 +15,10 @@ use std::sync::OnceLock;
 
 use nalgebra::DMatrix;
 
-use super::quadrature::{composite, gauss_legendre};
 use crate::basis::{Basis, Shell, SlaterShell};
 use crate::chem::molecule::distance;
 use crate::error::{Error, Result};
+use crate::numerics::quadrature::{composite, gauss_legendre};
 
 /// Beyond R·min(ζ) = this every overlap is below 1e-22: taken as zero.
 const SCREEN: f64 = 60.0;

@@ -1,10 +1,10 @@
 //! Energy curves of the two-centre 1s model: scans over R, the optimal exponent at
 //! each R, and the equilibrium refined beyond the scan step.
 
-use super::brent::minimize;
 use crate::chem::LengthUnit;
 use crate::error::{Error, Result};
 use crate::integrals::two_centre::{TwoCentre1s, two_centre_1s};
+use crate::numerics::brent::minimize;
 
 /// Relative tolerance on ζ and on R in the minimisations.
 pub const TOLERANCE: f64 = 1e-8;

@@ -1,7 +1,6 @@
 //! Turning a molecule and a basis into orbitals: the generalised eigenproblem, the
 //! one-electron solver, occupations, orbital selection and energy curves.
 
-pub mod brent;
 pub mod curve;
 pub mod eigen;
 pub mod estimate;

@@ -1,5 +1,5 @@
-//! Gauss–Legendre rules, shared by the integrals that are done numerically (the
-//! two-centre Slater overlaps). Kept apart so one rule serves every caller.
+//! Gauss–Legendre rules: one rule for every numerical integral in the library (the
+//! two-centre Slater overlaps, the slab integrals of the build-up) and in the tests.
 
 use std::f64::consts::PI;
 
@@ -51,5 +51,24 @@ mod tests {
     fn exact_for_polynomials() {
         let s: f64 = gauss_legendre(10).iter().map(|(x, w)| w * x.powi(18)).sum();
         assert!((s - 2.0 / 19.0).abs() < 1e-14);
+    }
+
+    /// The 5-point nodes and weights as tabulated (Abramowitz & Stegun, Handbook of
+    /// Mathematical Functions, table 25.4; from memory): ±0.906179845938664 with
+    /// 0.236926885056189, ±0.538469310105683 with 0.478628670499366, 0 with 128/225.
+    #[test]
+    fn five_point_rule_matches_the_table() {
+        let mut r = gauss_legendre(5);
+        r.sort_by(|a, b| a.0.total_cmp(&b.0));
+        let table = [
+            (-0.906_179_845_938_664, 0.236_926_885_056_189),
+            (-0.538_469_310_105_683, 0.478_628_670_499_366),
+            (0.0, 128.0 / 225.0),
+            (0.538_469_310_105_683, 0.478_628_670_499_366),
+            (0.906_179_845_938_664, 0.236_926_885_056_189),
+        ];
+        for ((x, w), (tx, tw)) in r.iter().zip(table) {
+            assert!((x - tx).abs() < 1e-14 && (w - tw).abs() < 1e-14, "{x} {w}");
+        }
     }
 }
