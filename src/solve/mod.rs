@@ -3,6 +3,7 @@
 
 pub mod brent;
 pub mod curve;
+pub mod degenerate;
 pub mod eigen;
 pub mod estimate;
 pub mod huckel;
