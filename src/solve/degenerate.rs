@@ -70,6 +70,29 @@ pub fn sets(set: &OrbitalSet) -> Vec<Range<usize>> {
         .collect()
 }
 
+/// The degenerate set holding orbital `index` (0-based), if it is in one.
+pub fn set_of(set: &OrbitalSet, index: usize) -> Option<Range<usize>> {
+    sets(set).into_iter().find(|r| r.contains(&index))
+}
+
+/// Whether a set is rotated: only when its occupations are equal (to 1e-12), so
+/// that the density does not change.
+pub fn equally_occupied(set: &OrbitalSet, r: &Range<usize>) -> bool {
+    let occ = set.orbitals[r.start].occupation;
+    set.orbitals[r.clone()]
+        .iter()
+        .all(|o| (o.occupation - occ).abs() <= 1e-12)
+}
+
+/// "1e-6 eV" or "1e-6 hartree": the tolerance in the unit the method reports.
+pub fn tolerance_text(set: &OrbitalSet) -> &'static str {
+    if (set.degeneracy - tolerance(true)).abs() < 1e-15 {
+        "1e-6 eV"
+    } else {
+        "1e-6 hartree"
+    }
+}
+
 /// "orbitals 7 and 8" or "orbitals 6, 7 and 8" (numbered from 1).
 pub fn members(r: &Range<usize>) -> String {
     let n: Vec<String> = r.clone().map(|i| (i + 1).to_string()).collect();
@@ -84,7 +107,8 @@ pub fn members(r: &Range<usize>) -> String {
 /// One note per degenerate set that is only partly filled, e.g. "orbitals 7 and 8
 /// are degenerate and share 2 electrons evenly (1.00 each)": such a level is an open
 /// shell, and one determinant of it is a choice the numbers do not show.
-pub fn sharing_notes(set: &OrbitalSet, unit: &str) -> Vec<String> {
+pub fn sharing_notes(set: &OrbitalSet) -> Vec<String> {
+    let tol = tolerance_text(set);
     sets(set)
         .into_iter()
         .filter_map(|r| {
@@ -92,7 +116,7 @@ pub fn sharing_notes(set: &OrbitalSet, unit: &str) -> Vec<String> {
             let total: f64 = set.orbitals[r.clone()].iter().map(|o| o.occupation).sum();
             (total > 1e-12 && total < 2.0 * r.len() as f64 - 1e-12).then(|| {
                 format!(
-                    "{} are degenerate (within 1e-6 {unit}) and share {} electron{} evenly ({each:.2} each)",
+                    "{} are degenerate (within {tol}) and share {} electron{} evenly ({each:.2} each)",
                     members(&r),
                     trim(total),
                     if (total - 1.0).abs() < 1e-12 { "" } else { "s" }
@@ -120,11 +144,7 @@ pub fn canonicalise(set: &mut OrbitalSet) -> usize {
     let weights = axis_weights(set);
     let mut skipped = 0;
     for r in sets(set) {
-        let occ = set.orbitals[r.start].occupation;
-        if set.orbitals[r.clone()]
-            .iter()
-            .any(|o| (o.occupation - occ).abs() > 1e-12)
-        {
+        if !equally_occupied(set, &r) {
             skipped += 1;
             continue;
         }

@@ -100,7 +100,7 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
         degeneracy: tol,
     };
     canonicalise(&mut set);
-    let shared = sharing_notes(&set, "eV");
+    let shared = sharing_notes(&set);
     set.notes.splice(1..1, shared);
     Ok(set)
 }

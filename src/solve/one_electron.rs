@@ -69,7 +69,7 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         degeneracy: tol,
     };
     canonicalise(&mut set);
-    let shared = sharing_notes(&set, "hartree");
+    let shared = sharing_notes(&set);
     set.notes.extend(shared);
     Ok(set)
 }
