@@ -163,8 +163,7 @@ pub fn canonicalise(set: &mut OrbitalSet) -> usize {
 /// The joint diagonalisation, ordering and signs (steps 4–6) on one set's vectors.
 fn rotate(c: &mut [Vec<f64>], s: Option<&nalgebra::DMatrix<f64>>, w: &[[f64; 3]]) {
     let k = c.len();
-    let m = moments(c, s, w);
-    let mut m = m;
+    let mut m = moments(c, s, w);
     let scale: f64 = m
         .iter()
         .flat_map(|ma| ma.iter().flatten())
@@ -187,9 +186,7 @@ fn rotate(c: &mut [Vec<f64>], s: Option<&nalgebra::DMatrix<f64>>, w: &[[f64; 3]]
     }
     // Order by the weights along x, then y, then z (largest first), read to 1e-8 so
     // rounding noise cannot swap members.
-    let key = |i: usize| -> [i64; 3] {
-        [0, 1, 2].map(|a| -((m[a][i][i] * 1e8).round() as i64))
-    };
+    let key = |i: usize| -> [i64; 3] { [0, 1, 2].map(|a| -((m[a][i][i] * 1e8).round() as i64)) };
     let mut order: Vec<usize> = (0..k).collect();
     order.sort_by_key(|&i| (key(i), i));
     let sorted: Vec<Vec<f64>> = order.iter().map(|&i| c[i].clone()).collect();
@@ -282,7 +279,11 @@ fn axis_weights(set: &OrbitalSet) -> Vec<[f64; 3]> {
     let total: f64 = atoms.iter().map(|a| a.charge()).sum();
     let g = [0, 1, 2].map(|a| {
         if total > 0.0 {
-            atoms.iter().map(|t| t.charge() * t.position[a]).sum::<f64>() / total
+            atoms
+                .iter()
+                .map(|t| t.charge() * t.position[a])
+                .sum::<f64>()
+                / total
         } else {
             atoms.iter().map(|t| t.position[a]).sum::<f64>() / atoms.len().max(1) as f64
         }

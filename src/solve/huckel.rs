@@ -7,9 +7,9 @@
 
 use nalgebra::DMatrix;
 
+use super::degenerate::{canonicalise, sharing_notes, tolerance};
 use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
 use super::huckel_params::{HuckelOptions, OffDiagonal, valence_basis};
-use super::degenerate::{canonicalise, sharing_notes, tolerance};
 use super::orbitals::{Orbital, OrbitalSet, aufbau};
 use crate::chem::Molecule;
 use crate::error::{Error, Result};

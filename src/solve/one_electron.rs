@@ -1,7 +1,7 @@
 //! The one-electron solver: exact within the basis for a system with one electron.
 
-use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
 use super::degenerate::{canonicalise, sharing_notes, tolerance};
+use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
 use super::orbitals::{Orbital, OrbitalSet, aufbau};
 use crate::basis::Basis;
 use crate::chem::Molecule;
