@@ -121,7 +121,7 @@ fn co2_pi_pairs_are_pure_x_and_y() {
 fn canonical_form_does_not_depend_on_the_mixture() {
     let reference = eht(CO2);
     let s = reference.overlap.clone().unwrap();
-    for angle in [0.3, 0.785_398, 1.2, -2.5, 3.0] {
+    for angle in [0.3, 0.78, 1.2, -2.5, 3.0] {
         let mut set = reference.clone();
         for r in sets(&set) {
             mix(&mut set, r.start, r.start + 1, angle);

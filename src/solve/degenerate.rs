@@ -229,14 +229,13 @@ fn apply(m: &mut [Vec<Vec<f64>>; 3], c: &mut [Vec<f64>], i: usize, j: usize, the
         c[j][mu] = -sn * a + cs * b;
     }
     for ma in m.iter_mut() {
-        let k = ma.len();
-        for r in 0..k {
-            let (a, b) = (ma[r][i], ma[r][j]);
-            ma[r][i] = cs * a + sn * b;
-            ma[r][j] = -sn * a + cs * b;
+        for row in ma.iter_mut() {
+            let (a, b) = (row[i], row[j]);
+            row[i] = cs * a + sn * b;
+            row[j] = -sn * a + cs * b;
         }
-        for col in 0..k {
-            let (a, b) = (ma[i][col], ma[j][col]);
+        let (ri, rj) = (ma[i].clone(), ma[j].clone());
+        for (col, (a, b)) in ri.into_iter().zip(rj).enumerate() {
             ma[i][col] = cs * a + sn * b;
             ma[j][col] = -sn * a + cs * b;
         }
