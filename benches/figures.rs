@@ -70,6 +70,7 @@ fn lattice() -> OrbitalSet {
         method: "benchmark lattice".into(),
         reference: None,
         notes: Vec::new(),
+        degeneracy: lobecast::solve::degenerate::tolerance(false),
     }
 }
 

@@ -78,6 +78,7 @@ fn main() {
         }],
         method: "bench".into(),
         reference: None,
+        degeneracy: lobecast::solve::degenerate::tolerance(false),
         notes: vec![],
     };
     let sampler = FieldSampler::new(&set, &[Field::parse("orbital:1").unwrap()]).unwrap();

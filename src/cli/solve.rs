@@ -7,7 +7,7 @@ use clap::Args;
 use super::common::{XyzFlags, load_model_with, print_notes, print_out, say};
 use crate::chem::units::hartree_to_ev;
 use crate::error::Result;
-use crate::solve::{OrbitalSet, orbitals_within};
+use crate::solve::{OrbitalSet, degenerate, orbitals_within};
 
 #[derive(Debug, Args)]
 pub struct SolveArgs {
@@ -72,10 +72,13 @@ pub fn run(args: SolveArgs) -> Result<()> {
     Ok(())
 }
 
+/// The orbital table. A member of a degenerate set carries the set's mark (D1, D2,
+/// …) in the `set` column, and a line under the table names each set's members.
 fn table(set: &OrbitalSet) -> String {
+    let sets = degenerate::sets(set);
     let mut t = format!(
-        "{:>4} {:>16} {:>12} {:>5} {:>4}  {}\n",
-        "#", "energy/hartree", "energy/eV", "occ", "", "largest coefficients"
+        "{:>4} {:>16} {:>12} {:>5} {:>4} {:>3}  {}\n",
+        "#", "energy/hartree", "energy/eV", "occ", "", "set", "largest coefficients"
     );
     let homo = set.orbitals.iter().rposition(|o| o.occupation > 1e-12);
     let lumo = homo.map_or(0, |h| h + 1);
@@ -87,13 +90,30 @@ fn table(set: &OrbitalSet) -> String {
         } else {
             ""
         };
+        let tag = sets
+            .iter()
+            .position(|r| r.contains(&i))
+            .map_or(String::new(), |k| format!("D{}", k + 1));
         t += &format!(
-            "{:>4} {:16.8} {:12.5} {:5.2} {mark:>4}  {}\n",
+            "{:>4} {:16.8} {:12.5} {:5.2} {mark:>4} {tag:>3}  {}\n",
             i + 1,
             o.energy,
             hartree_to_ev(o.energy),
             o.occupation,
             character(set, &o.coefficients)
+        );
+    }
+    for (k, r) in sets.iter().enumerate() {
+        let form = if degenerate::equally_occupied(set, r) {
+            "shown in the axis-aligned form (see README, degenerate orbitals)"
+        } else {
+            "occupations differ, left as given"
+        };
+        t += &format!(
+            "D{}: {} are degenerate (within {}); {form}\n",
+            k + 1,
+            degenerate::members(r),
+            degenerate::tolerance_text(set)
         );
     }
     t

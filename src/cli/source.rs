@@ -256,19 +256,27 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
             format!("{} hartree", minus(format!("{e:.4}")))
         }
     };
+    // "orbital 8 (one of 2 degenerate)": the drawn member is one choice of its set.
+    let which = match n
+        .checked_sub(1)
+        .and_then(|i| crate::solve::degenerate::set_of(set, i))
+    {
+        Some(r) => format!("orbital {n} (one of {} degenerate)", r.len()),
+        None => format!("orbital {n}"),
+    };
     let (heading, quantity, plain) = match field {
         Field::Orbital(_) => (
-            format!("orbital {n}, {}", energy(n)),
+            format!("{which}, {}", energy(n)),
             format!("ψ_{{{n}}}"),
             format!("orbital {n}"),
         ),
         Field::OrbitalDensity(_) => (
-            format!("density of orbital {n}, {}", energy(n)),
+            format!("density of {which}, {}", energy(n)),
             format!("|ψ_{{{n}}}|^{{2}}"),
             format!("orbital density {n}"),
         ),
         Field::OrbitalDeformation(_) => (
-            format!("deformation density of orbital {n}, {}", energy(n)),
+            format!("deformation density of {which}, {}", energy(n)),
             format!("Δρ_{{{n}}}"),
             format!("orbital deformation density {n}"),
         ),

@@ -7,6 +7,7 @@
 
 use nalgebra::DMatrix;
 
+use super::degenerate::{canonicalise, sharing_notes, tolerance};
 use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
 use super::huckel_params::{HuckelOptions, OffDiagonal, valence_basis};
 use super::orbitals::{Orbital, OrbitalSet, aufbau};
@@ -61,7 +62,8 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
         )));
     }
     let eigen = generalized_symmetric(&h, &s, DEPENDENCE_THRESHOLD)?;
-    let (occupations, shared) = aufbau(&eigen.values, electrons);
+    let tol = tolerance(true);
+    let (occupations, _) = aufbau(&eigen.values, electrons, tol);
     let orbitals = eigen
         .values
         .iter()
@@ -74,12 +76,6 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
         })
         .collect();
     let mut notes = vec![CAUTION.to_string()];
-    if shared {
-        notes.push(
-            "degenerate levels (within 1e-6 eV) at the frontier share their electrons evenly"
-                .into(),
-        );
-    }
     if eigen.dropped > 0 {
         notes.push(format!(
             "{} near-linear-dependent combination(s) of the basis were dropped",
@@ -90,7 +86,7 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
         OffDiagonal::Plain => "",
         OffDiagonal::Weighted => ", weighted",
     };
-    Ok(OrbitalSet {
+    let mut set = OrbitalSet {
         molecule: molecule.clone(),
         basis: vb.basis,
         overlap: Some(s),
@@ -101,7 +97,12 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
         ),
         notes,
         reference: Some(vb.reference),
-    })
+        degeneracy: tol,
+    };
+    canonicalise(&mut set);
+    let shared = sharing_notes(&set);
+    set.notes.splice(1..1, shared);
+    Ok(set)
 }
 
 #[cfg(test)]

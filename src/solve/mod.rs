@@ -2,6 +2,7 @@
 //! one-electron solver, occupations, orbital selection and energy curves.
 
 pub mod curve;
+pub mod degenerate;
 pub mod eigen;
 pub mod estimate;
 pub mod huckel;

@@ -1,5 +1,6 @@
 //! The one-electron solver: exact within the basis for a system with one electron.
 
+use super::degenerate::{canonicalise, sharing_notes, tolerance};
 use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
 use super::orbitals::{Orbital, OrbitalSet, aufbau};
 use crate::basis::Basis;
@@ -32,7 +33,8 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         &matrices.overlap,
         DEPENDENCE_THRESHOLD,
     )?;
-    let (occupations, _) = aufbau(&eigen.values, electrons as f64);
+    let tol = tolerance(false);
+    let (occupations, _) = aufbau(&eigen.values, electrons as f64, tol);
     let orbitals = eigen
         .values
         .iter()
@@ -56,7 +58,7 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
             eigen.dropped
         ));
     }
-    Ok(OrbitalSet {
+    let mut set = OrbitalSet {
         molecule: molecule.clone(),
         basis: basis.clone(),
         overlap: Some(matrices.overlap),
@@ -64,5 +66,10 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         method: format!("one-electron, {}", basis.name),
         notes,
         reference: None,
-    })
+        degeneracy: tol,
+    };
+    canonicalise(&mut set);
+    let shared = sharing_notes(&set);
+    set.notes.extend(shared);
+    Ok(set)
 }

@@ -303,15 +303,22 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         orbitals.sort_by(|a, b| a.energy.total_cmp(&b.energy));
         notes.push("the orbitals were renumbered in increasing energy".into());
     }
-    Ok(OrbitalSet {
+    let method = doc.method.unwrap_or_else(|| format!("orbital file {name}"));
+    // 1e-6 of the unit the energies are meant in: eV for extended Hückel or a file
+    // written in eV, hartree otherwise.
+    let in_ev = method.starts_with("extended Hückel") || doc.energy_unit == "ev";
+    let mut set = OrbitalSet {
         molecule,
         basis,
         overlap,
         orbitals,
-        method: doc.method.unwrap_or_else(|| format!("orbital file {name}")),
+        method,
         notes,
         reference,
-    })
+        degeneracy: super::degenerate::tolerance(in_ev),
+    };
+    super::degenerate::canonicalise(&mut set);
+    Ok(set)
 }
 
 /// Atoms closer than 0.1 Å are refused (ghost centres excepted), named by their

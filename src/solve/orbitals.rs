@@ -7,9 +7,6 @@ use crate::basis::Basis;
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
 
-/// Levels closer than this (hartree; 1e-6 eV) count as degenerate and share electrons.
-pub const DEGENERACY_HARTREE: f64 = 1e-6 / crate::chem::units::HARTREE_IN_EV;
-
 #[derive(Debug, Clone, PartialEq)]
 pub struct Orbital {
     /// Orbital energy in hartree.
@@ -39,6 +36,9 @@ pub struct OrbitalSet {
     /// Free-atom valence occupation of each basis function (the neutral, spherical
     /// atoms the deformation density is measured against), where the method has one.
     pub reference: Option<Vec<f64>>,
+    /// Levels closer than this (hartree) form one degenerate set: 1e-6 of the unit
+    /// the method reports its energies in (see `degenerate::tolerance`).
+    pub degeneracy: f64,
 }
 
 impl OrbitalSet {
@@ -82,29 +82,27 @@ impl OrbitalSet {
     }
 }
 
-/// Aufbau filling with two electrons per orbital; a group of degenerate levels that
-/// is only partly filled shares its electrons evenly. Returns (occupations, whether
-/// any sharing happened).
-pub fn aufbau(energies: &[f64], electrons: f64) -> (Vec<f64>, bool) {
+/// Aufbau filling with two electrons per orbital; a group of levels within `tol`
+/// (hartree, see `degenerate::groups`) that is only partly filled shares its
+/// electrons evenly. Returns (occupations, whether any sharing happened).
+pub fn aufbau(energies: &[f64], electrons: f64, tol: f64) -> (Vec<f64>, bool) {
     let mut occ = vec![0.0; energies.len()];
     let mut left = electrons;
     let mut shared = false;
-    let mut i = 0;
-    while i < energies.len() && left > 1e-12 {
-        let mut j = i + 1;
-        while j < energies.len() && energies[j] - energies[i] < DEGENERACY_HARTREE {
-            j += 1;
+    for g in super::degenerate::groups(energies, tol) {
+        if left <= 1e-12 {
+            break;
         }
-        let capacity = 2.0 * (j - i) as f64;
+        let capacity = 2.0 * g.len() as f64;
         let put = left.min(capacity);
-        if put < capacity && j - i > 1 {
+        if put < capacity && g.len() > 1 {
             shared = true;
         }
-        for o in &mut occ[i..j] {
-            *o = put / (j - i) as f64;
+        let each = put / g.len() as f64;
+        for o in &mut occ[g] {
+            *o = each;
         }
         left -= put;
-        i = j;
     }
     (occ, shared)
 }
@@ -355,10 +353,10 @@ mod tests {
 
     #[test]
     fn aufbau_shares_degenerate_levels() {
-        let (occ, shared) = aufbau(&[-2.0, -1.0, -1.0, 0.5], 4.0);
+        let (occ, shared) = aufbau(&[-2.0, -1.0, -1.0, 0.5], 4.0, 1e-6);
         assert_eq!(occ, vec![2.0, 1.0, 1.0, 0.0]);
         assert!(shared);
-        let (occ, shared) = aufbau(&[-1.0, 1.0], 1.0);
+        let (occ, shared) = aufbau(&[-1.0, 1.0], 1.0, 1e-6);
         assert_eq!(occ, vec![1.0, 0.0]);
         assert!(!shared);
     }
