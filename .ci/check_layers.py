@@ -12,8 +12,8 @@ import sys
 from pathlib import Path
 
 LAYERS = [
-    "error", "budget", "numerics", "chem", "basis", "integrals", "solve", "field",
-    "grid", "analysis", "surface", "io", "output", "render", "plot", "demo", "cli",
+    "error", "budget", "numerics", "chem", "basis", "integrals", "solve", "grid",
+    "field", "surface", "io", "output", "render", "plot", "cli",
 ]
 
 

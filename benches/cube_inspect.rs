@@ -7,9 +7,9 @@
 use std::io::BufWriter;
 use std::time::Instant;
 
-use lobecast::cube::stats::summarize;
-use lobecast::cube::{CubeAtom, CubeHeader, CubeReader, write_streaming};
 use lobecast::grid::GridBox;
+use lobecast::io::cube::stats::summarize;
+use lobecast::io::cube::{CubeAtom, CubeHeader, CubeReader, write_streaming};
 
 fn median(mut v: Vec<f64>) -> f64 {
     v.sort_by(f64::total_cmp);

@@ -65,11 +65,15 @@ fn run(grid: &GridBox, eval: &(dyn Fn(&lobecast::grid::Slab, &mut [f64]) + Sync)
 }
 
 fn main() {
-    let model = lobecast::model::parse(&benzene(), Path::new("benzene.toml")).unwrap();
-    let nbf = model.basis.len();
+    let model = lobecast::io::model::parse(&benzene(), Path::new("benzene.toml")).unwrap();
+    let basis = model
+        .basis()
+        .expect("a one-electron model has its basis")
+        .clone();
+    let nbf = basis.len();
     let set = OrbitalSet {
         molecule: model.molecule.clone(),
-        basis: model.basis.clone(),
+        basis,
         overlap: None,
         orbitals: vec![Orbital {
             energy: 0.0,

@@ -7,11 +7,10 @@ use std::io::{BufWriter, Write};
 use std::path::Path;
 use std::time::Instant;
 
-use lobecast::cube::writer::format_slab;
-use lobecast::cube::{CubeAtom, CubeHeader, write_streaming};
 use lobecast::field::{Field, FieldSampler};
 use lobecast::grid::{GridBox, stream_slabs};
-use lobecast::solve::orbitals_for;
+use lobecast::io::cube::writer::format_slab;
+use lobecast::io::cube::{CubeAtom, CubeHeader, write_streaming};
 
 const MODEL: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
     atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
@@ -35,8 +34,8 @@ fn time<F: FnMut()>(runs: usize, mut f: F) -> f64 {
 }
 
 fn main() {
-    let model = lobecast::model::parse(MODEL, Path::new("bench.toml")).unwrap();
-    let set = orbitals_for(&model).unwrap();
+    let model = lobecast::io::model::parse(MODEL, Path::new("bench.toml")).unwrap();
+    let set = model.solve().unwrap();
     let sampler = FieldSampler::new(&set, &[Field::parse("orbital:1").unwrap()]).unwrap();
     // A 200³ box of 12 bohr edges around the bond centre.
     let h = 12.0 / 199.0;

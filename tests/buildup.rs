@@ -7,7 +7,6 @@ use std::path::Path;
 
 use lobecast::field::buildup::{Buildup, buildup};
 use lobecast::integrals::two_centre::two_centre_1s;
-use lobecast::solve::orbitals_for;
 
 fn model_at(r: f64, zeta: f64) -> Buildup {
     let text = format!(
@@ -17,8 +16,13 @@ fn model_at(r: f64, zeta: f64) -> Buildup {
         -0.5 * r,
         0.5 * r
     );
-    buildup(&orbitals_for(&lobecast::model::parse(&text, Path::new("t.toml")).unwrap()).unwrap())
-        .unwrap()
+    buildup(
+        &lobecast::io::model::parse(&text, Path::new("t.toml"))
+            .unwrap()
+            .solve()
+            .unwrap(),
+    )
+    .unwrap()
 }
 
 #[test]

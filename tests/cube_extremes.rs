@@ -8,10 +8,10 @@ use std::io::Cursor;
 use std::path::Path;
 use std::process::{Command, Output};
 
-use lobecast::cube::format::push_e13;
-use lobecast::cube::writer::{PER_LINE, format_slab};
-use lobecast::cube::{CubeHeader, CubeReader, Volume};
 use lobecast::grid::GridBox;
+use lobecast::io::cube::format::push_e13;
+use lobecast::io::cube::writer::{PER_LINE, format_slab};
+use lobecast::io::cube::{CubeHeader, CubeReader, Volume};
 use proptest::prelude::*;
 
 const BIN: &str = env!("CARGO_BIN_EXE_lobecast");

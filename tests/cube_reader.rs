@@ -5,9 +5,9 @@
 
 use std::io::{Cursor, Write};
 
-use lobecast::cube::stats::{Measure, summarize};
-use lobecast::cube::{CubeAtom, CubeHeader, CubeReader, Volume, write_streaming};
 use lobecast::grid::GridBox;
+use lobecast::io::cube::stats::{Measure, summarize};
+use lobecast::io::cube::{CubeAtom, CubeHeader, CubeReader, Volume, write_streaming};
 
 const BOHR_IN_ANGSTROM: f64 = 0.529_177_210_903; // CODATA 2018 (Tiesinga et al. 2021)
 

@@ -5,8 +5,8 @@
 
 use std::io::{Cursor, Write};
 
-use lobecast::cube::stats::summarize;
-use lobecast::cube::{CubeReader, Volume};
+use lobecast::io::cube::stats::summarize;
+use lobecast::io::cube::{CubeReader, Volume};
 use proptest::prelude::*;
 
 const SINGLE: &str = "title\ncomment\n    2   -1.000000   -1.000000   -1.000000\n\

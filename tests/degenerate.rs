@@ -6,8 +6,8 @@
 use std::process::Command;
 
 use lobecast::basis::BasisSpec;
-use lobecast::chem::xyz::parse_xyz;
 use lobecast::chem::{LengthUnit, Molecule};
+use lobecast::io::xyz::parse_xyz;
 use lobecast::solve::OrbitalSet;
 use lobecast::solve::degenerate::{canonicalise, sets};
 use lobecast::solve::huckel::solve;

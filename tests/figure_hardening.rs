@@ -276,8 +276,8 @@ fn extended_huckel_titles_give_energies_in_ev() {
     assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
     let info = lobecast::cli::source::Source::load(
         &example("ethylene.xyz"),
-        &lobecast::model::LoadOptions {
-            method: Some(lobecast::model::Method::ExtendedHuckel),
+        &lobecast::io::model::LoadOptions {
+            method: Some(lobecast::solve::MethodKind::ExtendedHuckel),
             charge: None,
         },
     )

@@ -10,15 +10,15 @@ use lobecast::grid::plane::{PixelGrid, PlaneSpec, Window};
 use lobecast::render::contour::{Grid, trace};
 use lobecast::render::slice::{Contours, Figure, Panel, Rendered, Style, render};
 use lobecast::render::{Colour, Scale};
-use lobecast::solve::{OrbitalSet, orbitals_for};
+use lobecast::solve::OrbitalSet;
 
 const H2_PLUS: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
     atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
     [basis]\nset = \"slater-1s\"\n";
 
 fn set_of(model: &str) -> OrbitalSet {
-    let m = lobecast::model::parse(model, Path::new("test.toml")).unwrap();
-    orbitals_for(&m).unwrap()
+    let m = lobecast::io::model::parse(model, Path::new("test.toml")).unwrap();
+    m.solve().unwrap()
 }
 
 fn panel(signed: bool) -> Panel {
@@ -275,8 +275,8 @@ fn profile_csv_reproduces_direct_evaluation_exactly() {
         .map(|l| l.split(',').map(|v| v.parse().unwrap()).collect())
         .collect();
     assert_eq!(rows.len(), 57);
-    let m = lobecast::model::load(&example()).unwrap();
-    let set = orbitals_for(&m).unwrap();
+    let m = lobecast::io::model::load(&example()).unwrap();
+    let set = m.solve().unwrap();
     let fields = [
         Field::parse("orbital:2").unwrap(),
         Field::parse("orbital-deformation:1").unwrap(),

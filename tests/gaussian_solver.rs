@@ -11,13 +11,12 @@
 use std::path::Path;
 
 use lobecast::integrals::two_centre::two_centre_1s;
-use lobecast::solve::orbitals_for;
 
 const EXACT_R2_HARTREE: f64 = -0.602_634_2;
 
 fn energy(model: &str) -> f64 {
-    let m = lobecast::model::parse(model, Path::new("t.toml")).unwrap();
-    orbitals_for(&m).unwrap().orbitals[0].energy
+    let m = lobecast::io::model::parse(model, Path::new("t.toml")).unwrap();
+    m.solve().unwrap().orbitals[0].energy
 }
 
 fn h2(basis: &str) -> String {

@@ -7,14 +7,17 @@ use std::path::Path;
 use lobecast::field::{Field, FieldSampler};
 use lobecast::grid::{GridBox, Resolution, sample_all};
 use lobecast::integrals::two_centre::two_centre_1s;
-use lobecast::solve::{OrbitalSet, orbitals_for};
+use lobecast::solve::OrbitalSet;
 
 const MODEL: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
     atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
     [basis]\nset = \"slater-1s\"\n";
 
 fn set() -> OrbitalSet {
-    orbitals_for(&lobecast::model::parse(MODEL, Path::new("t.toml")).unwrap()).unwrap()
+    lobecast::io::model::parse(MODEL, Path::new("t.toml"))
+        .unwrap()
+        .solve()
+        .unwrap()
 }
 
 fn fields(list: &[&str]) -> Vec<Field> {

@@ -5,10 +5,10 @@
 use std::path::Path;
 
 use lobecast::chem::units::HARTREE_IN_EV;
-use lobecast::chem::xyz::parse_xyz;
 use lobecast::chem::{LengthUnit, Molecule};
 use lobecast::field::{Field, FieldSampler};
 use lobecast::grid::{GridBox, Resolution, sample_all};
+use lobecast::io::xyz::parse_xyz;
 use lobecast::solve::OrbitalSet;
 use lobecast::solve::huckel::solve;
 use lobecast::solve::huckel_params::HuckelOptions;
@@ -234,7 +234,7 @@ fn element_without_parameters_is_named() {
 /// points (to 1e-12; the file prints shortest round-trip floats, common practice).
 #[test]
 fn orbital_file_round_trip_keeps_the_reference() {
-    use lobecast::solve::orbital_file::{parse, to_json};
+    use lobecast::io::orbitals::{parse, to_json};
     let set = eht(&molecule(&example("hcn.xyz"), 1));
     let back = parse(&to_json(&set), "t.json").unwrap();
     assert_eq!(back.molecule.charge, 1);

@@ -4,8 +4,7 @@
 use std::path::Path;
 
 use lobecast::field::{Field, FieldSampler};
-use lobecast::solve::orbital_file::{parse, to_json};
-use lobecast::solve::orbitals_for;
+use lobecast::io::orbitals::{parse, to_json};
 
 const H2: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
     atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
@@ -34,7 +33,10 @@ fn values(set: &lobecast::solve::OrbitalSet, fields: &[&str], pts: &[[f64; 3]]) 
 
 #[test]
 fn round_trip_keeps_every_number() {
-    let set = orbitals_for(&lobecast::model::parse(H2, Path::new("m.toml")).unwrap()).unwrap();
+    let set = lobecast::io::model::parse(H2, Path::new("m.toml"))
+        .unwrap()
+        .solve()
+        .unwrap();
     let text = to_json(&set);
     let back = parse(&text, "o.json").unwrap();
     assert_eq!(

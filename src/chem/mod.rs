@@ -4,7 +4,6 @@
 pub mod elements;
 pub mod molecule;
 pub mod units;
-pub mod xyz;
 
 pub use elements::Element;
 pub use molecule::{Atom, Molecule};

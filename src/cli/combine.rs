@@ -5,10 +5,12 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use crate::cube::arith::{Term, atoms_difference, compare_grids, stored_units, write_weighted_sum};
-use crate::cube::sink::CubeSink;
-use crate::cube::{CubeHeader, CubeReader};
 use crate::error::{Error, Result};
+use crate::io::cube::arith::{
+    Term, atoms_difference, compare_grids, stored_units, write_weighted_sum,
+};
+use crate::io::cube::sink::CubeSink;
+use crate::io::cube::{CubeHeader, CubeReader};
 use crate::output::OutputPlan;
 
 #[derive(Debug, Args)]

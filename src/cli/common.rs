@@ -6,7 +6,8 @@ use clap::Args;
 
 use crate::chem::LengthUnit;
 use crate::error::Result;
-use crate::model::{self, LoadOptions, Method, Model};
+use crate::io::model::{self, LoadOptions, Model};
+use crate::solve::MethodKind;
 
 /// Loads a model file (TOML) or an orbital file.
 pub fn load_model(path: &Path) -> Result<Model> {
@@ -27,7 +28,7 @@ pub struct XyzFlags {
 impl XyzFlags {
     pub fn options(&self) -> Result<LoadOptions> {
         Ok(LoadOptions {
-            method: self.method.as_deref().map(Method::parse).transpose()?,
+            method: self.method.as_deref().map(MethodKind::parse).transpose()?,
             charge: self.charge,
         })
     }

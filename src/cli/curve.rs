@@ -9,14 +9,15 @@ use clap::Args;
 use super::common::{load_model, print_notes, print_out, say};
 use super::curve_charts as charts;
 use super::curve_report as report;
-use crate::basis::{BasisSpec, Shell};
+use crate::basis::{Basis, BasisSpec, Shell};
 use crate::chem::{LengthUnit, Molecule};
 use crate::error::{Error, Result};
 use crate::field::buildup;
-use crate::model::{Method, Model};
+use crate::io::model::Model;
 use crate::output::OutputPlan;
 use crate::solve::curve::{self, ZetaChoice};
 use crate::solve::one_electron::MINIMAL_BASIS_CAVEAT;
+use crate::solve::{Method, OrbitalSet};
 
 #[derive(Debug, Args)]
 pub struct CurveArgs {
@@ -58,7 +59,7 @@ pub struct CurveArgs {
 }
 
 /// Checks what every curve needs: two atoms, one electron, a basis to rebuild.
-fn two_atom_model(model: &Model) -> Result<(&Molecule, &BasisSpec)> {
+fn two_atom_model(model: &Model) -> Result<(&Molecule, &BasisSpec, &Basis)> {
     let m = &model.molecule;
     if m.atoms.len() != 2 {
         return Err(Error::input(format!(
@@ -66,8 +67,8 @@ fn two_atom_model(model: &Model) -> Result<(&Molecule, &BasisSpec)> {
             m.atoms.len()
         )));
     }
-    let spec = match (&model.spec, model.method) {
-        (Some(spec), Method::OneElectron) => spec,
+    let (spec, basis) = match (&model.spec, &model.method) {
+        (Some(spec), Method::OneElectron { basis }) => (spec, basis),
         _ => {
             return Err(Error::input(
                 "curve needs a model that lobecast solves (method = \"one-electron\"), not an orbital file",
@@ -83,12 +84,21 @@ fn two_atom_model(model: &Model) -> Result<(&Molecule, &BasisSpec)> {
         ))
         .with_hint(format!("set [molecule] charge = {}", nuclear - 1)));
     }
-    Ok((m, spec))
+    Ok((m, spec, basis))
+}
+
+/// The one-electron orbitals of the two-atom `template` moved to separation `r`.
+fn solve_at(template: &Molecule, spec: &BasisSpec, r: f64) -> Result<OrbitalSet> {
+    let molecule = curve::at_separation(template, r)?;
+    let method = Method::OneElectron {
+        basis: spec.build(&molecule)?,
+    };
+    crate::solve::orbitals_for(&molecule, &method)
 }
 
 pub fn run(args: CurveArgs) -> Result<()> {
     let model = load_model(&args.model)?;
-    let (molecule, spec) = two_atom_model(&model)?;
+    let (molecule, spec, basis) = two_atom_model(&model)?;
     let rs = curve::separations_in(args.from, args.to, args.step, args.units)?;
     let (a, b) = (&molecule.atoms[0], &molecule.atoms[1]);
     let closed_form = spec.is_slater_1s() && a.element == b.element;
@@ -117,7 +127,7 @@ pub fn run(args: CurveArgs) -> Result<()> {
     let chart;
     let mut buildups = None;
     let doc = if closed_form {
-        let Shell::Slater(s) = &model.basis.shells[0] else {
+        let Shell::Slater(s) = &basis.shells[0] else {
             return Err(Error::internal("slater-1s without a Slater shell"));
         };
         let choice = if args.optimize_zeta {
@@ -131,14 +141,10 @@ pub fn run(args: CurveArgs) -> Result<()> {
         chart = Some(charts::two_centre(&model, &points, eq, choice));
         if args.buildup {
             let zetas: Vec<f64> = points.iter().map(|p| p.zeta).collect();
-            buildups = Some(buildup::along_curve(molecule, &rs, |r, m| {
-                let i = rs
-                    .iter()
-                    .position(|x| *x == r)
-                    .expect("a scanned separation");
+            buildups = Some(buildup::along_curve(&rs, |i, r| {
                 let mut spec = spec.clone();
                 spec.zeta = [(a.element.symbol.to_string(), zetas[i])].into();
-                spec.build(m)
+                solve_at(molecule, &spec, r)
             })?);
         }
         report::TwoCentre {
@@ -157,7 +163,9 @@ pub fn run(args: CurveArgs) -> Result<()> {
         let eq = curve::states_equilibrium(molecule, spec, &points)?;
         chart = charts::states(&model, &points, eq);
         if args.buildup {
-            buildups = Some(buildup::along_curve(molecule, &rs, |_, m| spec.build(m))?);
+            buildups = Some(buildup::along_curve(&rs, |_, r| {
+                solve_at(molecule, spec, r)
+            })?);
         }
         report::States {
             model: &model,

@@ -1,6 +1,6 @@
 //! The data behind `curve --png`: what the chart module draws, from either path.
 
-use crate::model::Model;
+use crate::io::model::Model;
 use crate::plot::curve::CurveData;
 use crate::solve::curve::{CurvePoint, Equilibrium, StatesPoint, ZetaChoice, separated_limit};
 
@@ -49,7 +49,7 @@ pub fn states(model: &Model, points: &[StatesPoint], eq: Option<(f64, f64)>) -> 
         .iter()
         .map(|a| a.charge())
         .fold(0.0, f64::max);
-    let basis = &model.basis.name;
+    let basis = model.basis().map_or("", |b| b.name.as_str());
     let minimal = basis.starts_with("sto-");
     let mut footnotes = vec![UNITS_NOTE.to_string()];
     if minimal {

@@ -3,7 +3,7 @@
 use serde::Serialize;
 
 use crate::chem::units::{bohr_to_angstrom, hartree_to_ev};
-use crate::model::Model;
+use crate::io::model::Model;
 use crate::solve::curve::{CurvePoint, Equilibrium, StatesPoint, ZetaChoice, separated_limit};
 use crate::solve::one_electron::MINIMAL_BASIS_CAVEAT;
 
@@ -220,7 +220,7 @@ impl States<'_> {
         // The electron ends on the nucleus that binds it more: −Z_max²/2.
         let limit = separated_limit(zmax);
         let k = self.points.first().map_or(0, |p| p.energies.len());
-        let basis = self.model.basis.name.clone();
+        let basis = self.model.basis().map_or(String::new(), |b| b.name.clone());
         let mut table = format!(
             "lobecast curve: {}, one electron, basis {basis}; the {k} lowest states at {} separations\n",
             m.formula_with_charge(),

@@ -9,9 +9,9 @@ use serde::Serialize;
 
 use crate::chem::elements::by_number;
 use crate::chem::units::bohr_to_angstrom;
-use crate::cube::stats::{FieldSummary, Measure, summarize};
-use crate::cube::{CubeInfo, CubeReader};
 use crate::error::Result;
+use crate::io::cube::stats::{FieldSummary, Measure, summarize};
+use crate::io::cube::{CubeInfo, CubeReader};
 
 #[derive(Debug, Args)]
 pub struct InspectArgs {

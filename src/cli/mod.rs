@@ -10,6 +10,7 @@ pub mod demo;
 pub mod field_scale;
 mod inspect;
 mod profile;
+mod progress;
 mod slice;
 mod solve;
 pub mod source;

@@ -29,7 +29,19 @@ pub fn run(args: SolveArgs) -> Result<()> {
     if let Some(path) = &args.json {
         crate::output::check_not_input(path, &model.inputs)?;
     }
-    let set = orbitals_within(&model, args.memory)?;
+    // A long solve (over about 1e11 operations) shows a spinner on standard error
+    // when it is a terminal.
+    let mut spinner = None;
+    let set = orbitals_within(&model.molecule, &model.method, args.memory, &mut |e| {
+        if e.work > 1e11 {
+            let what = format!("solving in {} basis functions", e.functions);
+            spinner = Some(super::progress::spinner(&what));
+        }
+    });
+    if let Some(s) = spinner {
+        s.finish_and_clear();
+    }
+    let set = set?;
     // Extended-Hückel sets (solved now or read back from an orbital file) have no
     // total energy to speak of.
     // The electrons the orbitals hold, as occupied: fractional occupations stay
@@ -65,7 +77,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
         crate::output::write_bytes(
             path,
             &model.inputs,
-            crate::solve::orbital_file::to_json(&set).as_bytes(),
+            crate::io::orbitals::to_json(&set).as_bytes(),
         )?;
         say!("wrote {}", path.display());
     }

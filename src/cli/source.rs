@@ -12,11 +12,11 @@ use std::path::{Path, PathBuf};
 use crate::chem::elements::by_number;
 use crate::chem::units::hartree_to_ev;
 use crate::chem::{Atom, Molecule};
-use crate::cube::Volume;
 use crate::error::{Error, Result};
 use crate::field::{Field, FieldSampler};
-use crate::model;
-use crate::solve::{OrbitalSet, orbitals_for};
+use crate::io::cube::Volume;
+use crate::io::model;
+use crate::solve::OrbitalSet;
 
 pub enum Source {
     /// Orbitals built from a model file or read from an orbital file: exact values
@@ -96,7 +96,7 @@ impl Source {
         match ext.as_str() {
             "toml" | "json" | "xyz" => {
                 let m = model::load_with(path, options)?;
-                let set = orbitals_for(&m)?;
+                let set = m.solve()?;
                 Ok(Source::Orbitals { set, inputs: m.inputs })
             }
             "cube" | "gz" => {
@@ -188,12 +188,15 @@ impl Source {
                 let signed = volume.field_values(k).any(|v| v < 0.0);
                 // lobecast's own cubes name each field's unit on the comment line.
                 let info = &volume.info;
-                let (unit, plain_unit) =
-                    match crate::cube::arith::stored_units(&info.header.comment, info.fields)[k] {
-                        Some("bohr^-3/2") => ("bohr^{−3/2}", "bohr^-3/2"),
-                        Some(_) => ("e bohr^{−3}", "e/bohr^3"),
-                        None => ("units of the file", "units of the file"),
-                    };
+                let (unit, plain_unit) = match crate::io::cube::arith::stored_units(
+                    &info.header.comment,
+                    info.fields,
+                )[k]
+                {
+                    Some("bohr^-3/2") => ("bohr^{−3/2}", "bohr^-3/2"),
+                    Some(_) => ("e bohr^{−3}", "e/bohr^3"),
+                    None => ("units of the file", "units of the file"),
+                };
                 Ok(FieldInfo {
                     heading: format!("stored field {} of the cube file", k + 1),
                     quantity: format!("f_{{{}}}", k + 1),

@@ -8,13 +8,12 @@ use clap::Args;
 
 use super::common::{XyzFlags, length, load_model_with, print_notes, say};
 use crate::chem::LengthUnit;
-use crate::cube::sink::CubeSink;
-use crate::cube::{CubeAtom, CubeHeader, write_streaming};
 use crate::error::{Error, Result};
 use crate::field::{Field, FieldSampler};
 use crate::grid::{GridBox, Resolution};
+use crate::io::cube::sink::CubeSink;
+use crate::io::cube::{CubeAtom, CubeHeader, write_streaming};
 use crate::output::OutputPlan;
-use crate::solve::orbitals_for;
 
 /// Default box padding around the outermost nuclei (bohr).
 pub const DEFAULT_PADDING_BOHR: f64 = 5.0;
@@ -65,7 +64,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let mut plan = OutputPlan::new(&model.inputs);
     let slot = plan.add(&args.out)?;
     check_lengths(&args)?;
-    let set = orbitals_for(&model)?;
+    let set = model.solve()?;
     let sampler = FieldSampler::new(&set, &fields)?;
     let padding = args
         .padding

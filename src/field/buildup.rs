@@ -50,21 +50,15 @@ pub fn buildup(set: &OrbitalSet) -> Result<Buildup> {
     Ok(Buildup { between, midpoint })
 }
 
-/// The build-up numbers at every separation of a curve: the two-atom `template`
-/// moved to each R, given the basis `basis_at(R, molecule)`, solved, and measured.
-pub fn along_curve<B>(
-    template: &crate::chem::Molecule,
-    rs: &[f64],
-    basis_at: B,
-) -> Result<Vec<Buildup>>
+/// The build-up numbers at every separation of a curve, in parallel:
+/// `orbitals_at(i, R)` gives the orbitals at the i-th separation (the caller
+/// decides how they are obtained; nothing here solves).
+pub fn along_curve<F>(rs: &[f64], orbitals_at: F) -> Result<Vec<Buildup>>
 where
-    B: Fn(f64, &crate::chem::Molecule) -> Result<crate::basis::Basis> + Sync,
+    F: Fn(usize, f64) -> Result<OrbitalSet> + Sync,
 {
     rs.par_iter()
-        .map(|&r| {
-            let molecule = crate::solve::curve::at_separation(template, r)?;
-            let basis = basis_at(r, &molecule)?;
-            buildup(&crate::solve::one_electron::solve(&molecule, &basis)?)
-        })
+        .enumerate()
+        .map(|(i, &r)| buildup(&orbitals_at(i, r)?))
         .collect()
 }

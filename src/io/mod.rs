@@ -1,3 +1,9 @@
-//! File formats, one file each, each opening with its layout and its specification.
+//! File formats, one file each, each opening with its layout and its specification:
+//! model files (TOML), XYZ, the orbital file (JSON), cube files, PNG. Reading gives
+//! plain data to the rooms below; nothing here solves or evaluates.
 
+pub mod cube;
+pub mod model;
+pub mod orbitals;
 pub mod png;
+pub mod xyz;

@@ -11,10 +11,11 @@
 //! bookkeeping per pair besides their values). Work of grid evaluation: one
 //! exponential per primitive per point, see [`grid_work`].
 
+use super::Method;
 use crate::basis::{Basis, Shell};
 use crate::budget::check_memory;
+use crate::chem::Molecule;
 use crate::error::Result;
-use crate::model::{Method, Model};
 
 /// Dense n × n matrices alive at the peak of a solve (counted from `eigen` and the
 /// solvers; rounded up).
@@ -81,16 +82,15 @@ impl SolveEstimate {
     }
 }
 
-/// Estimates what solving `model` needs (building only the cheap basis description,
-/// no matrix). `None` for orbitals read from a file, which are not solved.
-pub fn for_model(model: &Model) -> Result<Option<SolveEstimate>> {
-    Ok(match model.method {
-        Method::File => None,
-        Method::OneElectron => Some(SolveEstimate::for_basis(&model.basis)),
-        Method::ExtendedHuckel => {
-            let options = model.huckel.clone().unwrap_or_default();
+/// Estimates what solving needs (building only the cheap basis description, no
+/// matrix). `None` for given orbitals, which are not solved.
+pub fn for_method(molecule: &Molecule, method: &Method) -> Result<Option<SolveEstimate>> {
+    Ok(match method {
+        Method::Given(_) => None,
+        Method::OneElectron { basis } => Some(SolveEstimate::for_basis(basis)),
+        Method::ExtendedHuckel(options) => {
             options.check()?;
-            let vb = super::huckel_params::valence_basis(&model.molecule, &options)?;
+            let vb = super::huckel_params::valence_basis(molecule, options)?;
             Some(SolveEstimate::for_basis(&vb.basis))
         }
     })
@@ -98,8 +98,8 @@ pub fn for_model(model: &Model) -> Result<Option<SolveEstimate>> {
 
 /// Refuses a solve whose memory estimate exceeds `budget` bytes, naming the basis
 /// size and the estimate.
-pub fn check(model: &Model, budget: u64) -> Result<Option<SolveEstimate>> {
-    let Some(e) = for_model(model)? else {
+pub fn check(molecule: &Molecule, method: &Method, budget: u64) -> Result<Option<SolveEstimate>> {
+    let Some(e) = for_method(molecule, method)? else {
         return Ok(None);
     };
     check_memory(
@@ -107,8 +107,8 @@ pub fn check(model: &Model, budget: u64) -> Result<Option<SolveEstimate>> {
         budget,
         &format!(
             "solving {} ({} atoms, {} basis functions: {} dense {}×{} matrices)",
-            model.molecule.formula(),
-            model.molecule.atoms.len(),
+            molecule.formula(),
+            molecule.atoms.len(),
             e.functions,
             SOLVE_MATRICES,
             e.functions,

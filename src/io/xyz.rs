@@ -6,9 +6,9 @@
 //! silently shorter molecule. Counts above `MAX_ATOMS` are refused before allocating,
 //! and atoms of the first frame closer than 0.1 Å are refused with the pair named.
 
-use super::elements::{by_symbol, unknown_symbol};
-use super::molecule::{Atom, check_separations};
-use super::units::LengthUnit;
+use crate::chem::elements::{by_symbol, unknown_symbol};
+use crate::chem::molecule::{Atom, check_separations};
+use crate::chem::units::LengthUnit;
 use crate::error::{Error, Result};
 
 /// What an XYZ file holds: the atoms (positions in bohr), the comment line, and

@@ -24,11 +24,11 @@ use std::path::{Path, PathBuf};
 use serde::Deserialize;
 
 use crate::basis::{Basis, BasisSpec};
-use crate::chem::xyz::parse_xyz;
 use crate::chem::{Atom, LengthUnit, Molecule, elements};
 use crate::error::{Error, Result};
-use crate::solve::OrbitalSet;
+use crate::io::xyz::parse_xyz;
 use crate::solve::huckel_params::{ElementOverride, HuckelOptions, OffDiagonal, valence_basis};
+use crate::solve::{Method, MethodKind, OrbitalSet};
 
 #[derive(Debug, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -61,7 +61,7 @@ struct AtomEntry {
 #[serde(deny_unknown_fields)]
 struct OrbitalsSection {
     #[serde(default)]
-    method: Method,
+    method: MethodKind,
     /// The orbital file, for `method = "file"`; relative to the model file.
     path: Option<String>,
     /// Extended Hückel: the Wolfsberg–Helmholz constant.
@@ -73,57 +73,38 @@ struct OrbitalsSection {
     parameters: Option<BTreeMap<String, ElementOverride>>,
 }
 
-/// How the orbitals are obtained.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Default)]
-#[serde(rename_all = "kebab-case")]
-pub enum Method {
-    /// Solve H C = S C ε for one electron in the basis.
-    #[default]
-    OneElectron,
-    /// Take the orbitals from an orbital file as they are.
-    File,
-    /// Extended Hückel in a valence Slater basis (semi-empirical, qualitative).
-    ExtendedHuckel,
-}
-
-impl Method {
-    /// Reads a method name as the command line gives it.
-    pub fn parse(text: &str) -> Result<Self> {
-        match text.trim().to_ascii_lowercase().as_str() {
-            "extended-huckel" | "extended-hückel" => Ok(Method::ExtendedHuckel),
-            "one-electron" => Ok(Method::OneElectron),
-            // Only extended Hückel works on an XYZ file (the only place --method is
-            // read): one-electron needs a basis, which only a model file gives.
-            _ => Err(Error::input(format!("unknown method {text:?}"))
-                .with_hint("the method for an XYZ file: extended-huckel")),
-        }
-    }
-}
-
 /// What the command line adds when the model is a bare XYZ file.
 #[derive(Debug, Clone, Default)]
 pub struct LoadOptions {
-    pub method: Option<Method>,
+    pub method: Option<MethodKind>,
     pub charge: Option<i32>,
 }
 
-/// A read and checked model.
+/// A read and checked model: what to solve and how, not yet solved.
 #[derive(Debug, Clone)]
 pub struct Model {
     pub path: PathBuf,
     pub molecule: Molecule,
     /// The basis as the model asks for it (to rebuild it at other geometries);
-    /// `None` when the basis came from an orbital file.
+    /// `None` when the basis came from an orbital file or with extended Hückel.
     pub spec: Option<BasisSpec>,
-    pub basis: Basis,
     pub method: Method,
-    /// The orbitals, when they were read from a file rather than to be solved.
-    pub orbitals: Option<OrbitalSet>,
-    /// Extended-Hückel choices, for that method.
-    pub huckel: Option<HuckelOptions>,
     /// Every file the model was read from (the model itself, an XYZ or orbital
     /// file), so that no output is ever written over one of them.
     pub inputs: Vec<PathBuf>,
+}
+
+impl Model {
+    /// The orbitals the model asks for, within the default memory budget.
+    pub fn solve(&self) -> Result<OrbitalSet> {
+        crate::solve::orbitals_for(&self.molecule, &self.method)
+    }
+
+    /// The basis of a one-electron model or an orbital file (extended Hückel builds
+    /// its own when it solves).
+    pub fn basis(&self) -> Option<&Basis> {
+        self.method.basis()
+    }
 }
 
 /// Reads a model file (TOML) or, for a `.json` path, an orbital file directly.
@@ -159,15 +140,12 @@ pub fn load_with(path: &Path, options: &LoadOptions) -> Result<Model> {
 }
 
 fn from_orbitals(file: &Path, inputs: Vec<PathBuf>) -> Result<Model> {
-    let set = crate::solve::orbital_file::read(file)?;
+    let set = crate::io::orbitals::read(file)?;
     Ok(Model {
         path: inputs[0].clone(),
         molecule: set.molecule.clone(),
         spec: None,
-        basis: set.basis.clone(),
-        method: Method::File,
-        orbitals: Some(set),
-        huckel: None,
+        method: Method::Given(Box::new(set)),
         inputs,
     })
 }
@@ -189,19 +167,17 @@ fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
     let molecule = Molecule::new(frame.atoms, options.charge.unwrap_or(0))
         .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
     match method {
-        Method::ExtendedHuckel => {
+        MethodKind::ExtendedHuckel => {
             huckel_coverage(&molecule)
                 .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
             let huckel = HuckelOptions::default();
-            let basis = valence_basis(&molecule, &huckel)?.basis;
+            // Built once here so that a missing parameter is refused on reading.
+            valence_basis(&molecule, &huckel)?;
             Ok(Model {
                 path: path.to_path_buf(),
                 molecule,
                 spec: None,
-                basis,
-                method,
-                orbitals: None,
-                huckel: Some(huckel),
+                method: Method::ExtendedHuckel(huckel),
                 inputs: vec![path.to_path_buf()],
             })
         }
@@ -240,7 +216,7 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
     let name = path.display().to_string();
     let file: ModelFile = toml::from_str(text).map_err(|e| toml_error(&name, text, &e))?;
     let folder = path.parent().unwrap_or(Path::new("."));
-    if file.orbitals.method == Method::File {
+    if file.orbitals.method == MethodKind::File {
         if file.molecule.is_some() || file.basis.is_some() {
             return Err(Error::input(format!(
                 "{name}: with method = \"file\" the molecule and basis come from the orbital file; remove [molecule] and [basis]"
@@ -262,7 +238,7 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
     let huckel_keys = file.orbitals.k.is_some()
         || file.orbitals.off_diagonal.is_some()
         || file.orbitals.parameters.is_some();
-    let huckel = if file.orbitals.method == Method::ExtendedHuckel {
+    let huckel = if file.orbitals.method == MethodKind::ExtendedHuckel {
         if file.basis.is_some() {
             return Err(Error::input(format!(
                 "{name}: extended Hückel brings its own valence basis; remove [basis]"
@@ -345,19 +321,22 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
     if huckel.is_some() {
         huckel_coverage(&molecule).map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
     }
-    let basis = match (&spec, &huckel) {
-        (Some(spec), _) => spec.build(&molecule)?,
-        (None, Some(h)) => valence_basis(&molecule, h)?.basis,
+    let method = match (&spec, huckel) {
+        (Some(spec), _) => Method::OneElectron {
+            basis: spec.build(&molecule)?,
+        },
+        (None, Some(h)) => {
+            // Built once here so that a missing parameter is refused on reading.
+            valence_basis(&molecule, &h)?;
+            Method::ExtendedHuckel(h)
+        }
         (None, None) => return Err(Error::internal("a model without a basis")),
     };
     Ok(Model {
         path: path.to_path_buf(),
         molecule,
         spec,
-        basis,
-        method: file.orbitals.method,
-        orbitals: None,
-        huckel,
+        method,
         inputs,
     })
 }
@@ -390,8 +369,9 @@ mod tests {
         assert_eq!(m.molecule.atoms.len(), 2);
         assert_eq!(m.molecule.atoms[1].position[2], 1.0);
         assert_eq!(m.molecule.electron_count(), 1);
-        assert_eq!(m.basis.len(), 2);
-        assert_eq!(m.basis.shells[1].label(0), "1s(ζ=1.200)");
+        let basis = m.basis().unwrap();
+        assert_eq!(basis.len(), 2);
+        assert_eq!(basis.shells[1].label(0), "1s(ζ=1.200)");
     }
 
     #[test]
@@ -425,12 +405,13 @@ mod huckel_tests {
     #[test]
     fn extended_huckel_with_overrides() {
         let m = parse(EHT, Path::new("m.toml")).unwrap();
-        assert_eq!(m.method, Method::ExtendedHuckel);
-        assert_eq!(m.basis.len(), 5);
-        let h = m.huckel.as_ref().unwrap();
+        let Method::ExtendedHuckel(h) = &m.method else {
+            panic!("extended Hückel expected, got {:?}", m.method.kind());
+        };
+        assert_eq!(valence_basis(&m.molecule, h).unwrap().basis.len(), 5);
         assert_eq!(h.k, 2.0);
         assert_eq!(h.off_diagonal, OffDiagonal::Weighted);
-        let set = crate::solve::orbitals_for(&m).unwrap();
+        let set = m.solve().unwrap();
         let occ: f64 = set.orbitals.iter().map(|o| o.occupation).sum();
         assert_eq!(occ, 9.0);
         let e = parse(
@@ -460,7 +441,7 @@ mod huckel_tests {
             "{}",
             e.message
         );
-        let e = Method::parse("one-electorn").unwrap_err();
+        let e = MethodKind::parse("one-electorn").unwrap_err();
         assert_eq!(
             e.hint.as_deref(),
             Some("the method for an XYZ file: extended-huckel"),

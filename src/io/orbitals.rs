@@ -6,11 +6,11 @@ use std::path::Path;
 
 use serde::{Deserialize, Serialize};
 
-use super::orbitals::{Orbital, OrbitalSet};
 use crate::basis::{Angular, Basis, GaussianShell, Shell, SlaterShell};
 use crate::chem::units::{BOHR_IN_ANGSTROM, HARTREE_IN_EV};
 use crate::chem::{Atom, Molecule, elements};
 use crate::error::{Error, Result};
+use crate::solve::orbitals::{Orbital, OrbitalSet};
 
 pub const FORMAT: &str = "lobecast-orbitals";
 pub const VERSION: u32 = 1;
@@ -315,9 +315,9 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         method,
         notes,
         reference,
-        degeneracy: super::degenerate::tolerance(in_ev),
+        degeneracy: crate::solve::degenerate::tolerance(in_ev),
     };
-    super::degenerate::canonicalise(&mut set);
+    crate::solve::degenerate::canonicalise(&mut set);
     Ok(set)
 }
 
