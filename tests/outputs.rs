@@ -203,3 +203,20 @@ fn an_interrupt_removes_the_unfinished_cube() {
     assert_eq!(status.code(), Some(130), "exit 128 + SIGINT");
     assert_eq!(names(dir.path()), ["h2.toml"], "no temporary file remains");
 }
+
+/// Hardening item 2: with `--json -` the orbital file alone goes to standard output
+/// (the report to standard error), so it parses as JSON (common practice for `-`).
+#[test]
+fn solve_json_to_stdout_stays_parseable() {
+    let dir = tempfile::tempdir().unwrap();
+    std::fs::write(
+        dir.path().join("m.toml"),
+        "[molecule]\nunits = \"bohr\"\ncharge = 1\natoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n[basis]\nset = \"slater-1s\"\n",
+    )
+    .unwrap();
+    let out = run(dir.path(), &["solve", "m.toml", "--json", "-"]);
+    assert!(out.status.success());
+    let doc: serde_json::Value = serde_json::from_slice(&out.stdout).expect("stdout is JSON");
+    assert_eq!(doc["format"], "lobecast-orbitals");
+    assert!(String::from_utf8_lossy(&out.stderr).contains("lobecast solve:"));
+}

@@ -154,6 +154,7 @@ pub fn run(args: CombineArgs) -> Result<()> {
         grid: first.grid.clone(),
         orbital_numbers: None,
     };
+    header.check_fits()?;
     let mut out = plan.open()?;
     {
         let mut sink = CubeSink::new(out.writer(slot), &args.out);

@@ -4,8 +4,9 @@ use std::path::Path;
 
 use clap::Args;
 
+use crate::budget::check_count;
 use crate::chem::LengthUnit;
-use crate::error::Result;
+use crate::error::{Error, Result};
 use crate::io::model::{self, LoadOptions, Model};
 use crate::solve::MethodKind;
 
@@ -76,4 +77,27 @@ pub fn print_notes(notes: &[String]) -> Result<()> {
         print_out(&format!("note: {n}\n"))?;
     }
     Ok(())
+}
+
+/// Reads a count option and checks it against its documented range. Negative and
+/// huge values are read as numbers first, so the message can say why they are refused.
+pub fn parse_count(name: &str, text: &str, min: u64, max: u64) -> Result<u64> {
+    let whole = text.trim().parse::<i128>().map_err(|_| {
+        Error::input(format!(
+            "{name} takes a whole number from {min} to {max}, got {text:?}"
+        ))
+    })?;
+    let value = u64::try_from(whole).map_err(|_| {
+        Error::input(format!(
+            "{name} {whole} is outside the accepted range {min} to {max}"
+        ))
+    })?;
+    check_count(name, value, min, max).map_err(|e| {
+        if name == "--size" {
+            e.with_hint("--size is the width of the figure in pixels")
+        } else {
+            e
+        }
+    })?;
+    Ok(value)
 }

@@ -38,9 +38,10 @@ pub struct CurveArgs {
     /// Choose the 1s exponent ζ that minimises the bonding energy at every R (slater-1s only)
     #[arg(long)]
     pub optimize_zeta: bool,
-    /// Number of lowest states to report for bases other than slater-1s
-    #[arg(long, default_value_t = 2)]
-    pub states: usize,
+    /// Number of lowest states to report for bases other than slater-1s (1 to 100)
+    /// [default: 2]
+    #[arg(long, value_name = "K")]
+    pub states: Option<String>,
     /// Write the curve as CSV (lengths in bohr and Å, energies in hartree)
     #[arg(long, value_name = "FILE")]
     pub csv: Option<PathBuf>,
@@ -96,13 +97,25 @@ fn solve_at(template: &Molecule, spec: &BasisSpec, r: f64) -> Result<OrbitalSet>
     crate::solve::orbitals_for(&molecule, &method)
 }
 
+/// The most states `--states` reports.
+pub const MAX_STATES: u64 = 100;
+
 pub fn run(args: CurveArgs) -> Result<()> {
+    let states = match &args.states {
+        Some(k) => super::common::parse_count("--states", k, 1, MAX_STATES)? as usize,
+        None => 2,
+    };
     let model = load_model(&args.model)?;
     let (molecule, spec, basis) = two_atom_model(&model)?;
     let rs = curve::separations_in(args.from, args.to, args.step, args.units)?;
     let (a, b) = (&molecule.atoms[0], &molecule.atoms[1]);
     let closed_form = spec.is_slater_1s() && a.element == b.element;
-    if args.png.is_some() && !closed_form && args.states < 2 {
+    if closed_form && args.states.is_some() {
+        return Err(Error::input(
+            "--states applies to bases other than slater-1s on two identical atoms, whose curve always gives the bonding and antibonding states",
+        ));
+    }
+    if args.png.is_some() && !closed_form && states < 2 {
         return Err(Error::input("--png needs at least two states (--states 2)"));
     }
     // Every output is checked before the scan; the integral chart exists only for
@@ -111,6 +124,12 @@ pub fn run(args: CurveArgs) -> Result<()> {
     let csv = plan.add_opt(args.csv.as_deref(), false)?;
     let json = plan.add_opt(args.json.as_deref(), false)?;
     let energy_png = plan.add_opt(args.png.as_deref(), true)?;
+    if args.png.as_deref() == Some(std::path::Path::new("-")) && (closed_form || args.buildup) {
+        return Err(Error::input(
+            "--png - sends one chart to standard output, but this curve draws more than one (FILE-integrals.png or FILE-buildup.png beside FILE)",
+        )
+        .with_hint("give --png a file name"));
+    }
     let integrals_png = match &args.png {
         Some(p) if closed_form => Some(plan.add_binary(&suffixed(p, "integrals"))?),
         _ => None,
@@ -156,10 +175,7 @@ pub fn run(args: CurveArgs) -> Result<()> {
         }
         .into_document()
     } else {
-        if args.states == 0 {
-            return Err(Error::input("--states must be at least 1"));
-        }
-        let points = curve::scan_states(molecule, spec, &rs, args.states)?;
+        let points = curve::scan_states(molecule, spec, &rs, states)?;
         let eq = curve::states_equilibrium(molecule, spec, &points)?;
         chart = charts::states(&model, &points, eq);
         if args.buildup {

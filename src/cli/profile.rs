@@ -5,8 +5,8 @@ use std::time::Instant;
 
 use clap::Args;
 
+use super::common::parse_count;
 use super::common::{print_notes, say};
-use super::slice::parse_count;
 use super::source::Source;
 use crate::chem::LengthUnit;
 use crate::chem::units::bohr_to_angstrom;

@@ -5,9 +5,8 @@ use std::time::Instant;
 
 use clap::{Args, ValueEnum};
 
-use super::common::{print_notes, say};
+use super::common::{parse_count, print_notes, say};
 use super::source::Source;
-use crate::budget::check_count;
 use crate::chem::LengthUnit;
 use crate::chem::units::bohr_to_angstrom;
 use crate::error::{Error, Result};
@@ -123,29 +122,6 @@ pub struct SliceArgs {
     pub units: LengthUnit,
     #[arg(long, value_enum, default_value_t = Background::White)]
     pub background: Background,
-}
-
-/// Reads a count option and checks it against its documented range. Negative and
-/// huge values are read as numbers first, so the message can say why they are refused.
-pub(crate) fn parse_count(name: &str, text: &str, min: u64, max: u64) -> Result<u64> {
-    let whole = text.trim().parse::<i128>().map_err(|_| {
-        Error::input(format!(
-            "{name} takes a whole number from {min} to {max}, got {text:?}"
-        ))
-    })?;
-    let value = u64::try_from(whole).map_err(|_| {
-        Error::input(format!(
-            "{name} {whole} is outside the accepted range {min} to {max}"
-        ))
-    })?;
-    check_count(name, value, min, max).map_err(|e| {
-        if name == "--size" {
-            e.with_hint("--size is the width of the figure in pixels")
-        } else {
-            e
-        }
-    })?;
-    Ok(value)
 }
 
 pub fn run(args: SliceArgs) -> Result<()> {

@@ -26,9 +26,10 @@ pub struct SolveArgs {
 
 pub fn run(args: SolveArgs) -> Result<()> {
     let model = load_model_with(&args.model, &args.xyz)?;
-    if let Some(path) = &args.json {
-        crate::output::check_not_input(path, &model.inputs)?;
-    }
+    // Planned before anything is printed: with `--json -` the report goes to
+    // standard error, so the JSON on standard output stays parseable.
+    let mut plan = crate::output::OutputPlan::new(&model.inputs);
+    let json = plan.add_opt(args.json.as_deref(), false)?;
     // A long solve (over about 1e11 operations) shows a spinner on standard error
     // when it is a terminal.
     let mut spinner = None;
@@ -73,13 +74,12 @@ pub fn run(args: SolveArgs) -> Result<()> {
         print_out(&charges(&set, &q))?;
     }
     print_notes(&set.notes)?;
-    if let Some(path) = &args.json {
-        crate::output::write_bytes(
-            path,
-            &model.inputs,
-            crate::io::orbitals::to_json(&set).as_bytes(),
-        )?;
-        say!("wrote {}", path.display());
+    if let Some(slot) = json {
+        let mut out = plan.open()?;
+        out.put(slot, crate::io::orbitals::to_json(&set).as_bytes())?;
+        for name in out.commit()? {
+            say!("wrote {name}");
+        }
     }
     Ok(())
 }

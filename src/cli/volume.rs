@@ -37,7 +37,7 @@ pub struct VolumeArgs {
     /// Exactly N points along the longest edge of the box (2 to 10000), instead of
     /// --spacing; the other edges get as many as the same spacing needs
     #[arg(long, value_name = "N")]
-    pub points: Option<i64>,
+    pub points: Option<String>,
     /// Space between the outermost nuclei and the box faces, in --units
     /// [default: 5 bohr, which is 2.646 Å]
     #[arg(long, value_name = "LENGTH")]
@@ -69,7 +69,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let padding = args
         .padding
         .map_or(DEFAULT_PADDING_BOHR, |p| length(p, args.units));
-    let resolution = match (args.spacing, args.points) {
+    let resolution = match (args.spacing, args.points.as_deref()) {
         (_, Some(n)) => Resolution::Points(points_count(n)?),
         (Some(h), None) => Resolution::Spacing(length(h, args.units)),
         (None, None) => Resolution::Spacing(DEFAULT_SPACING_BOHR),
@@ -124,6 +124,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         ))
         .with_hint("use a coarser --spacing, fewer --points, or raise --max-bytes"));
     }
+    header.check_fits()?;
     let mut out = plan.open()?;
     let bar = progress_bar(&grid);
     {
@@ -155,15 +156,10 @@ pub fn run(args: VolumeArgs) -> Result<()> {
 }
 
 /// Largest `--points`: 10000³ points is far beyond any cube a viewer opens.
-pub const MAX_POINTS_PER_EDGE: i64 = 10_000;
+pub const MAX_POINTS_PER_EDGE: u64 = 10_000;
 
-fn points_count(n: i64) -> Result<usize> {
-    if !(2..=MAX_POINTS_PER_EDGE).contains(&n) {
-        return Err(Error::input(format!(
-            "--points {n} is outside the accepted range 2 to {MAX_POINTS_PER_EDGE}"
-        )));
-    }
-    Ok(n as usize)
+fn points_count(text: &str) -> Result<usize> {
+    Ok(super::common::parse_count("--points", text, 2, MAX_POINTS_PER_EDGE)? as usize)
 }
 
 /// Refuses bad lengths in the unit the user typed them in, before any work.

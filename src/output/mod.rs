@@ -111,9 +111,10 @@ impl OutputPlan {
         let mut items = Vec::with_capacity(self.targets.len());
         for t in self.targets {
             items.push(match t {
-                Target::Stdout => Open::Stdout(QuietStdout {
+                // A descriptor closed by the shell (`>&-`) is reopened on /dev/null
+                // by the Rust runtime before main, so it reads as an ordinary sink.
+                Target::Stdout => Open::Stdout(DataStdout {
                     out: std::io::stdout(),
-                    closed: false,
                 }),
                 Target::File { shown, real } => {
                     let folder = target::folder_of(&real);
@@ -184,41 +185,36 @@ impl Pending {
 
 #[derive(Debug)]
 enum Open {
-    Stdout(QuietStdout),
+    Stdout(DataStdout),
     File(Pending),
 }
 
-/// Standard output that treats a closed pipe (`lobecast … --out - | head`) as the
-/// reader having seen enough: later bytes are dropped instead of failing the run.
+/// Standard output as a data output. A reader that closes the pipe early
+/// (`lobecast … --out - | head -c 100`) leaves the output incomplete: that is an
+/// error naming what happened, never a silent success.
 #[derive(Debug)]
-struct QuietStdout {
+struct DataStdout {
     out: std::io::Stdout,
-    closed: bool,
 }
 
-impl Write for QuietStdout {
+fn closed_early(e: std::io::Error) -> std::io::Error {
+    if e.kind() == std::io::ErrorKind::BrokenPipe {
+        std::io::Error::new(
+            e.kind(),
+            "standard output was closed by its reader before the output was complete",
+        )
+    } else {
+        e
+    }
+}
+
+impl Write for DataStdout {
     fn write(&mut self, buf: &[u8]) -> std::io::Result<usize> {
-        if self.closed {
-            return Ok(buf.len());
-        }
-        match self.out.write(buf) {
-            Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => {
-                self.closed = true;
-                Ok(buf.len())
-            }
-            r => r,
-        }
+        self.out.write(buf).map_err(closed_early)
     }
 
     fn flush(&mut self) -> std::io::Result<()> {
-        match self.out.flush() {
-            Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => {
-                self.closed = true;
-                Ok(())
-            }
-            _ if self.closed => Ok(()),
-            r => r,
-        }
+        self.out.flush().map_err(closed_early)
     }
 }
 
@@ -260,7 +256,9 @@ impl Outputs {
         for item in self.items {
             match item {
                 Open::Stdout(mut s) => {
-                    let _ = s.flush();
+                    s.flush().map_err(|e| {
+                        Error::internal(format!("writing standard output failed: {e}"))
+                    })?;
                     names.push("standard output".into());
                 }
                 Open::File(p) => names.push(commit_one(p)?),

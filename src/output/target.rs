@@ -32,6 +32,20 @@ impl Target {
         if path == Path::new("-") {
             return Ok(Target::Stdout);
         }
+        // A name ending in '/' asks for a folder ("out/" is read as "out" by Path).
+        if path.as_os_str().as_encoded_bytes().ends_with(b"/") {
+            return Err(Error::input(format!(
+                "the output {} names a folder, not a file",
+                path.display()
+            )));
+        }
+        // What the name finally leads to, through every link the system follows
+        // (also /dev/stdout → a pipe), must be a regular file if it exists.
+        if let Ok(m) = std::fs::metadata(path) {
+            if !m.is_file() {
+                return Err(not_regular(path, &m));
+            }
+        }
         let real = follow_links(path)?;
         if real.file_name().is_none() || real.ends_with(Component::ParentDir) {
             return Err(Error::input(format!(
@@ -60,14 +74,20 @@ impl Target {
         }
         if let Ok(m) = std::fs::metadata(&real) {
             if !m.is_file() {
-                return Err(Error::input(format!(
-                    "the output {} exists and is {}; lobecast writes only regular files and will not replace it",
-                    path.display(),
-                    kind_of(&m)
-                ))
-                .with_hint("give a new file name, or '-' to write to standard output"));
+                return Err(not_regular(path, &m));
             }
         }
+        // The folder must take a new file now, not only after the work is done.
+        tempfile::Builder::new()
+            .prefix(".lobecast-probe.")
+            .tempfile_in(&folder)
+            .map_err(|e| {
+                Error::input(format!(
+                    "cannot write {}: the folder {} does not take new files: {e}",
+                    path.display(),
+                    folder.display()
+                ))
+            })?;
         Ok(Target::File {
             shown: path.to_path_buf(),
             real,
@@ -115,6 +135,15 @@ fn follow_links(path: &Path) -> Result<PathBuf> {
         "the output {} is a chain of more than {MAX_LINK_HOPS} symbolic links",
         path.display()
     )))
+}
+
+fn not_regular(path: &Path, m: &std::fs::Metadata) -> Error {
+    Error::input(format!(
+        "the output {} exists and is {}; lobecast writes only regular files and will not replace it",
+        path.display(),
+        kind_of(m)
+    ))
+    .with_hint("give a new file name, or '-' to write to standard output")
 }
 
 fn kind_of(m: &std::fs::Metadata) -> &'static str {

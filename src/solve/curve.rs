@@ -55,6 +55,9 @@ pub fn point(z: f64, choice: ZetaChoice, r: f64) -> CurvePoint {
     }
 }
 
+/// The most separations one scan takes.
+pub const MAX_SEPARATIONS: usize = 1_000_000;
+
 /// Separations from `from` to `to` inclusive in steps of `step` (bohr); each is
 /// computed as from + i·step so no rounding accumulates.
 pub fn separations(from: f64, to: f64, step: f64) -> Result<Vec<f64>> {
@@ -86,12 +89,15 @@ pub fn separations_in(from: f64, to: f64, step: f64, unit: LengthUnit) -> Result
         )));
     }
     let (from, to, step) = (unit.to_bohr(from), unit.to_bohr(to), unit.to_bohr(step));
-    let count = ((to - from) / step + 1e-9).floor() as usize + 1;
-    if count > 1_000_000 {
+    // Counted in f64 first: a cast of a huge quotient to usize would saturate and
+    // the + 1 wrap to zero separations.
+    let count = ((to - from) / step + 1e-9).floor() + 1.0;
+    if !(count <= MAX_SEPARATIONS as f64) {
         return Err(Error::input(format!(
-            "the scan would have {count} points; use a larger --step"
+            "the scan would have {count:.3e} points, more than {MAX_SEPARATIONS}; use a larger --step"
         )));
     }
+    let count = count as usize;
     Ok((0..count).map(|i| from + i as f64 * step).collect())
 }
 

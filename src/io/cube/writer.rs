@@ -36,6 +36,39 @@ impl CubeHeader {
         self.orbital_numbers.as_ref().map_or(1, Vec::len)
     }
 
+    /// Refuses, before anything is written, a header whose numbers would not keep
+    /// the fixed layout: each length is written `%12.6f`, which leaves a separating
+    /// space only below 1000 bohr in magnitude for negative values (10 000 for
+    /// positive ones); a larger origin, step or position would run into its
+    /// neighbour and no reader could split the line.
+    pub fn check_fits(&self) -> Result<()> {
+        let g = &self.grid;
+        let mut numbers: Vec<(String, f64)> = Vec::new();
+        for (d, x) in ["x", "y", "z"].iter().zip(g.origin) {
+            numbers.push((format!("the origin's {d}"), x));
+        }
+        for (i, a) in g.axes.iter().enumerate() {
+            for (d, x) in ["x", "y", "z"].iter().zip(a) {
+                numbers.push((format!("step vector {} ({d})", i + 1), *x));
+            }
+        }
+        for (i, a) in self.atoms.iter().enumerate() {
+            for (d, x) in ["x", "y", "z"].iter().zip(a.position) {
+                numbers.push((format!("atom {}'s {d}", i + 1), x));
+            }
+        }
+        for (what, x) in numbers {
+            let text = format!("{x:12.6}");
+            if !x.is_finite() || !text.starts_with(' ') {
+                return Err(Error::input(format!(
+                    "{what} is {x:.6e} bohr, which the cube layout (12 columns, 6 decimals) cannot hold: lengths must lie between -999.999999 and 9999.999999 bohr"
+                ))
+                .with_hint("move the molecule near the origin, or use a smaller --padding or --spacing"));
+            }
+        }
+        Ok(())
+    }
+
     /// The header text. Lengths in bohr, hence positive voxel counts.
     pub fn text(&self) -> String {
         let one_line = |s: &str| s.replace(['\r', '\n'], " ");
@@ -66,8 +99,9 @@ impl CubeHeader {
         }
         if let Some(nums) = &self.orbital_numbers {
             t += &format!("{:5}", nums.len());
+            // " {k:4}" is "{k:5}" below 10 000 and still separated above it.
             for k in nums {
-                t += &format!("{k:5}");
+                t += &format!(" {k:4}");
             }
             t += "\n";
         }
