@@ -11,7 +11,6 @@
 //! (λ²−μ²)(1/rA + 1/rB) = 4λ/R, and, with r̂A·r̂B = (rA²+rB²−R²)/(2 rA rB),
 //! (λ²−μ²) r̂A·r̂B = λ² + μ² − 2. Every integrand below is smooth (analytic).
 
-
 use lobecast::integrals::two_centre::{TwoCentre1s, two_centre_1s};
 use lobecast::numerics::quadrature::gauss_legendre;
 

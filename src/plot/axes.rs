@@ -87,9 +87,14 @@ fn names(c: &mut Canvas, chart: &Chart, l: &Layout) {
         (HAlign::Centre, VAlign::Top),
         ink,
     );
+    // A turned name longer than the frame is high is set smaller rather than cut.
+    let fit = |name: &str| {
+        let w = text::measure(name, NAME).width;
+        NAME * (f.height + 40.0).min(w) / w
+    };
     c.text_up(
         &chart.y.name,
-        NAME,
+        fit(&chart.y.name),
         MARGIN,
         mid_y,
         (HAlign::Centre, VAlign::Top),
@@ -98,7 +103,7 @@ fn names(c: &mut Canvas, chart: &Chart, l: &Layout) {
     if let Some(t) = &chart.twin {
         c.text_down(
             &t.name,
-            NAME,
+            fit(&t.name),
             l.width as f32 - MARGIN,
             mid_y,
             (HAlign::Centre, VAlign::Top),

@@ -107,6 +107,8 @@ pub struct Chart<'a> {
     /// Footnotes (markup), wrapped to the width.
     pub notes: Vec<String>,
     pub legend: bool,
+    /// Raise the top of the y range so that the legend covers no value up to `y.hi`.
+    pub legend_headroom: bool,
 }
 
 /// A drawn chart with its frame (for mapping data to pixels) and the boxes of its
@@ -205,7 +207,12 @@ fn frame_mask(c: &Canvas, f: &Frame) -> Option<Mask> {
     let mut mask = Mask::new(c.width(), c.height())?;
     let rect = Rect::from_xywh(f.left, f.top, f.width, f.height)?;
     let path = PathBuilder::from_rect(rect);
-    mask.fill_path(&path, FillRule::Winding, false, tiny_skia::Transform::identity());
+    mask.fill_path(
+        &path,
+        FillRule::Winding,
+        false,
+        tiny_skia::Transform::identity(),
+    );
     Some(mask)
 }
 

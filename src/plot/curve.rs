@@ -146,14 +146,23 @@ pub fn energies(d: &CurveData) -> Result<Canvas> {
         title: format!("Energy curves · {}", d.title),
         width: d.width,
         background: Colour::WHITE,
-        x: Axis { name: "R / bohr".into(), lo: x0, hi: x1 },
-        y: Axis { name: "E / hartree".into(), lo: y0, hi: y1 },
+        x: Axis {
+            name: "R / bohr".into(),
+            lo: x0,
+            hi: x1,
+        },
+        y: Axis {
+            name: "E / hartree".into(),
+            lo: y0,
+            hi: y1,
+        },
         twin: Some(Twin::unit("E / eV", HARTREE_IN_EV)),
         series,
         verticals: Vec::new(),
         points,
         notes,
         legend: true,
+        legend_headroom: false,
     };
     Ok(draw(&chart).canvas)
 }
@@ -197,14 +206,23 @@ pub fn integrals(d: &CurveData) -> Result<Canvas> {
         title: format!("Overlap, Coulomb and exchange integrals · {}", d.title),
         width: d.width,
         background: Colour::WHITE,
-        x: Axis { name: "R / bohr".into(), lo: x0, hi: x1 },
-        y: Axis { name: "J, K / hartree".into(), lo: y0, hi: y1 },
+        x: Axis {
+            name: "R / bohr".into(),
+            lo: x0,
+            hi: x1,
+        },
+        y: Axis {
+            name: "J, K / hartree".into(),
+            lo: y0,
+            hi: y1,
+        },
         twin: Some(Twin::spanning("S (dimensionless)", (y0, y1), (0.0, 1.05))),
         series,
         verticals: Vec::new(),
         points: Vec::new(),
         notes,
         legend: true,
+        legend_headroom: false,
     };
     Ok(draw(&chart).canvas)
 }

@@ -3,6 +3,7 @@
 //! to measured label sizes so that no two labels overlap, and data → pixel mapping.
 
 use super::chart::Chart;
+use super::furniture::{LEGEND_INSET, legend_size};
 use super::size::*;
 use crate::render::axes::LabelBox;
 use crate::render::text;
@@ -105,9 +106,9 @@ fn fitted_vertical(lo: f64, hi: f64, px: f32) -> Ticks {
     Ticks { values, decimals }
 }
 
-/// Lays out `c`, with `rows` rows of marker labels above the frame.
-fn layout_with(c: &Chart, rows: usize) -> Layout {
-    let requested = c.width as f32;
+/// Lays out `c` at least `requested` px wide, with `rows` rows of marker labels
+/// above the frame.
+fn layout_with(c: &Chart, requested: f32, rows: usize) -> Layout {
     let notes: Vec<String> = c
         .notes
         .iter()
@@ -116,15 +117,22 @@ fn layout_with(c: &Chart, rows: usize) -> Layout {
     let name_h = 1.25 * line_height(NAME);
     let tick_h = line_height(FONT);
     let top = MARGIN + 1.4 * line_height(TITLE) + 6.0 + rows as f32 * 1.3 * tick_h + 4.0;
-    let bottom = TICK + LABEL_GAP + tick_h + 8.0 + name_h + 6.0
+    let bottom = TICK
+        + LABEL_GAP
+        + tick_h
+        + 8.0
+        + name_h
+        + 6.0
         + notes.len() as f32 * FOOT_LEADING * FOOT
         + MARGIN;
-    let height = (ASPECT * requested).max(top + bottom + MIN_FRAME_H).round();
+    let least = top + bottom + MIN_FRAME_H.max(FRAME_ASPECT * requested);
+    let height = (ASPECT * requested).max(least).round();
     let frame_h = (height - top - bottom).floor();
-    let y = fitted_vertical(c.y.lo, c.y.hi, frame_h);
+    let (lo, hi) = (c.y.lo, with_headroom(c, frame_h));
+    let y = fitted_vertical(lo, hi, frame_h);
     let twin = c.twin.as_ref().map(|t| (t.scale, t.offset));
     let right_ticks = c.twin.as_ref().map(|t| {
-        let (a, b) = (t.right_of(c.y.lo), t.right_of(c.y.hi));
+        let (a, b) = (t.right_of(lo), t.right_of(hi));
         fitted_vertical(a.min(b), a.max(b), frame_h)
     });
     let left = (MARGIN + name_h + 6.0 + y.widest() + LABEL_GAP + TICK).ceil();
@@ -134,14 +142,20 @@ fn layout_with(c: &Chart, rows: usize) -> Layout {
         None => MARGIN + 0.5 * x_end,
     }
     .ceil();
-    let width = requested.max(left + MIN_FRAME_W + right_room).round();
+    // The legend's box fits inside the frame with its inset on both sides.
+    let legend_w = match (c.legend, legend_size(&c.series)) {
+        (true, Some((w, _))) => w + 2.0 * LEGEND_INSET,
+        _ => 0.0,
+    };
+    let least = MIN_FRAME_W.max(legend_w);
+    let width = requested.max(left + least + right_room).round();
     let frame = Frame {
         left,
         top: top.round(),
         width: width - left - right_room,
         height: frame_h,
         x: (c.x.lo, c.x.hi),
-        y: (c.y.lo, c.y.hi),
+        y: (lo, hi),
         twin,
     };
     let x = fitted_horizontal(&frame, width);
@@ -199,17 +213,34 @@ pub fn marker_label_boxes(c: &Chart, f: &Frame) -> (Vec<LabelBox>, usize) {
     (boxes, ends.len())
 }
 
-/// The layout of `c`: rows for marker labels are added until they fit.
+/// The top of the y range raised so that the legend's box (with a gap) covers no
+/// value up to the asked-for top: y.hi then sits `room` px below the frame's top.
+fn with_headroom(c: &Chart, frame_h: f32) -> f64 {
+    let (lo, hi) = (c.y.lo, c.y.hi);
+    if !(c.legend && c.legend_headroom) {
+        return hi;
+    }
+    let Some((_, h)) = legend_size(&c.series) else {
+        return hi;
+    };
+    let room = ((LEGEND_INSET + h + 6.0) / frame_h).min(0.6) as f64;
+    (hi - lo * room) / (1.0 - room)
+}
+
+/// The layout of `c`: it is laid out again when it had to grow (so the footnotes
+/// use the width) or needs more rows of marker labels.
 pub fn layout(c: &Chart) -> Layout {
     let mut rows = usize::from(!c.verticals.is_empty());
-    let mut l = layout_with(c, rows);
-    for _ in 0..3 {
+    let mut width = c.width as f32;
+    let mut l = layout_with(c, width, rows);
+    for _ in 0..4 {
         let (_, need) = marker_label_boxes(c, &l.frame);
-        if need <= rows {
+        if need <= rows && l.width as f32 <= width {
             break;
         }
-        rows = need;
-        l = layout_with(c, rows);
+        rows = rows.max(need);
+        width = width.max(l.width as f32);
+        l = layout_with(c, width, rows);
     }
     l
 }

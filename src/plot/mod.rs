@@ -42,6 +42,9 @@ pub mod size {
     pub const MIN_FRAME_H: f32 = 160.0;
     /// Height of a chart as a fraction of its width, when the text leaves room.
     pub const ASPECT: f32 = 0.62;
+    /// The plot area is at least this fraction of the chart's width high, so small
+    /// charts with fixed-size text keep a usable plot area.
+    pub const FRAME_ASPECT: f32 = 0.42;
 }
 
 /// A range padded by `frac` of its span on both sides (a flat one by ±1).

@@ -31,11 +31,7 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
     let all = p.series.iter().flat_map(|s| s.values.iter().copied());
     let finite = all.filter(|v| v.is_finite());
     let (lo, hi) = finite.fold((0.0f64, 0.0f64), |(a, b), v| (a.min(v), b.max(v)));
-    let (y0, mut y1) = padded(lo, hi, 0.06);
-    if p.series.len() > 1 {
-        // Headroom for the legend, so it covers no curve.
-        y1 += 0.12 * (hi - lo) * p.series.len() as f64;
-    }
+    let (y0, y1) = padded(lo, hi, 0.06);
     let zero_x = [x0, x1];
     let zero_y = [0.0, 0.0];
     let mut series = Vec::new();
@@ -59,19 +55,32 @@ pub fn draw(p: &Profile) -> Result<Canvas> {
         title: p.title.clone(),
         width: p.width,
         background: p.background,
-        x: Axis { name: p.x_label.clone(), lo: x0, hi: x1 },
-        y: Axis { name: p.y_label.clone(), lo: y0, hi: y1 },
+        x: Axis {
+            name: p.x_label.clone(),
+            lo: x0,
+            hi: x1,
+        },
+        y: Axis {
+            name: p.y_label.clone(),
+            lo: y0,
+            hi: y1,
+        },
         twin: None,
         series,
         verticals: p
             .nuclei
             .iter()
-            .map(|(label, x)| Vertical { x: *x, label: label.clone() })
+            .map(|(label, x)| Vertical {
+                x: *x,
+                label: label.clone(),
+            })
             .collect(),
         points: Vec::new(),
         notes: p.footnotes.clone(),
         // One series is named by the y axis.
         legend: p.series.len() > 1,
+        // Room above the curves for the legend, so it covers none of them.
+        legend_headroom: true,
     };
     Ok(chart::draw(&chart).canvas)
 }
