@@ -18,8 +18,8 @@ use crate::plot::profile::{Profile, Series, draw};
 use crate::render::Colour;
 use crate::render::text::formula_markup;
 
-/// Accepted ranges of the count options (documented in README and `--help`). A chart
-/// is drawn 3× larger and shrunk, so 4000 px already means a 12000-px canvas.
+/// Accepted ranges of the count options (documented in README and `--help`); a
+/// chart 4000 px wide is already far larger than any page or screen needs.
 pub const MAX_POINTS: u64 = 1_000_000;
 pub const MAX_SIZE: u64 = 4000;
 pub const MAX_FIELDS: usize = 16;

@@ -2,12 +2,8 @@
 //! the equilibrium marked (hartree on the left axis, eV on the right), and the
 //! overlap, Coulomb and exchange integrals against R.
 
-use plotters::element::{Circle, EmptyElement, PathElement, Text};
-use plotters::prelude::*;
-
-use super::backend::CanvasBackend;
-use super::profile::finish;
-use super::{PALETTE, SUPERSAMPLE, Sizes, axis_decimals, padded, plot_error};
+use super::chart::{Axis, Chart, Point, Series, Twin, draw};
+use super::{PALETTE, padded, size};
 use crate::chem::units::HARTREE_IN_EV;
 use crate::error::Result;
 use crate::render::canvas::{Canvas, Colour};
@@ -60,10 +56,30 @@ pub fn clip(xs: &[f64], ys: &[f64], lo: f64, hi: f64) -> Vec<Vec<(f64, f64)>> {
     pieces
 }
 
+/// Decimal places of axis labels over [lo, hi] at about eight ticks, for notes that
+/// quote an axis value.
+fn decimals_over(lo: f64, hi: f64) -> usize {
+    let t = ticks::nice(lo, hi, 8);
+    ticks::decimals(if t.len() > 1 { t[1] - t[0] } else { hi - lo })
+}
+
+/// Clipped pieces of a curve joined into one series, a NaN between pieces.
+fn joined(pieces: Vec<Vec<(f64, f64)>>) -> (Vec<f64>, Vec<f64>) {
+    let (mut xs, mut ys) = (Vec::new(), Vec::new());
+    for p in pieces {
+        for (x, y) in p {
+            xs.push(x);
+            ys.push(y);
+        }
+        xs.push(f64::NAN);
+        ys.push(f64::NAN);
+    }
+    (xs, ys)
+}
+
+const GUIDE: Colour = Colour::rgb(90, 90, 90);
+
 pub fn energies(d: &CurveData) -> Result<Canvas> {
-    let z = Sizes::new(d.width * SUPERSAMPLE);
-    let height = (d.width as f32 * 0.62) as u32 * SUPERSAMPLE;
-    let mut canvas = Canvas::new(d.width * SUPERSAMPLE, height, Colour::WHITE);
     let (x0, x1) = (d.r[0], d.r[d.r.len() - 1]);
     let lowest = d.e_bonding.iter().copied().fold(f64::INFINITY, f64::min);
     let highest = d
@@ -80,251 +96,135 @@ pub fn energies(d: &CurveData) -> Result<Canvas> {
     let (_, y1) = padded(lowest.min(d.limit), top, 0.04);
     // More room below the well, for the equilibrium's label.
     let y0 = lowest.min(d.limit) - 0.12 * (top - lowest.min(d.limit));
-    let yd = axis_decimals(y0, y1, 8);
-    let ed = axis_decimals(y0 * HARTREE_IN_EV, y1 * HARTREE_IN_EV, 8);
-    let xd = axis_decimals(x0, x1, 10);
-    let bottom =
-        ((super::wrap_notes(&d.footnotes, &z, canvas.width()).len() + 1) as f32 * 1.35 * z.foot
-            + 14.0 * z.k) as u32;
-    let legend = (30.0 * z.k) as i32;
-    {
-        let root = CanvasBackend {
-            canvas: &mut canvas,
-        }
-        .into_drawing_area();
-        let mut chart = ChartBuilder::on(&root)
-            .margin_top((z.margin_top() + 0.5 * z.label) as u32)
-            .margin_bottom(bottom)
-            .margin_left((16.0 * z.k) as u32)
-            .margin_right((16.0 * z.k) as u32)
-            .x_label_area_size((3.2 * z.label) as u32)
-            .y_label_area_size((5.5 * z.label) as u32)
-            .right_y_label_area_size((5.5 * z.label) as u32)
-            .build_cartesian_2d(x0..x1, y0..y1)
-            .map_err(plot_error)?
-            .set_secondary_coord(x0..x1, y0 * HARTREE_IN_EV..y1 * HARTREE_IN_EV);
-        chart
-            .configure_mesh()
-            .set_all_tick_mark_size((6.0 * z.k) as u32)
-            .axis_style(ShapeStyle::from(&BLACK).stroke_width(z.thin))
-            .light_line_style(TRANSPARENT)
-            .bold_line_style(RGBColor(218, 218, 218))
-            .label_style(("sans-serif", z.label as f64))
-            .axis_desc_style(("sans-serif", z.desc as f64))
-            .x_desc("R / bohr")
-            .y_desc("E / hartree")
-            .x_labels(10)
-            .y_labels(8)
-            .x_label_formatter(&|v| ticks::label(*v, xd))
-            .y_label_formatter(&|v| ticks::label(*v, yd))
-            .draw()
-            .map_err(plot_error)?;
-        chart
-            .configure_secondary_axes()
-            .set_all_tick_mark_size((6.0 * z.k) as u32)
-            .axis_style(ShapeStyle::from(&BLACK).stroke_width(z.thin))
-            .label_style(("sans-serif", z.label as f64))
-            .axis_desc_style(("sans-serif", z.desc as f64))
-            .y_desc("E / eV")
-            .y_labels(8)
-            .y_label_formatter(&|v| ticks::label(*v, ed))
-            .draw()
-            .map_err(plot_error)?;
-        let grey = ShapeStyle::from(&RGBColor(90, 90, 90)).stroke_width(z.thin);
-        chart
-            .draw_series(DashedLineSeries::new(
-                [(x0, d.limit), (x1, d.limit)],
-                (7.0 * z.k) as i32,
-                (5.0 * z.k) as i32,
-                grey,
-            ))
-            .map_err(plot_error)?
-            .label(format!(
+    let limit_x = [x0, x1];
+    let limit_y = [d.limit, d.limit];
+    let mut series = vec![Series {
+        dash: Some([7.0, 5.0]),
+        width: size::THIN,
+        ..Series::line(
+            Some(format!(
                 "separated limit, {} hartree",
                 ticks::label(d.limit, 4)
-            ))
-            .legend(move |(x, y)| PathElement::new([(x, y), (x + legend, y)], grey));
-        for (i, (name, ys)) in [
-            (d.state_labels[0].as_str(), &d.e_bonding),
-            (d.state_labels[1].as_str(), &d.e_antibonding),
-        ]
-        .into_iter()
-        .enumerate()
-        {
-            let style = ShapeStyle::from(&PALETTE[i]).stroke_width(z.line);
-            let mut first = true;
-            for piece in clip(&d.r, ys, y0, y1) {
-                let drawn = chart
-                    .draw_series(LineSeries::new(piece, style))
-                    .map_err(plot_error)?;
-                if first {
-                    drawn
-                        .label(name)
-                        .legend(move |(x, y)| PathElement::new([(x, y), (x + legend, y)], style));
-                    first = false;
-                }
-            }
-        }
-        if let Some((re, ee)) = d.equilibrium {
-            let label = format!(
+            )),
+            &limit_x,
+            &limit_y,
+            GUIDE,
+        )
+    }];
+    let curves = [
+        joined(clip(&d.r, &d.e_bonding, y0, y1)),
+        joined(clip(&d.r, &d.e_antibonding, y0, y1)),
+    ];
+    for (i, (xs, ys)) in curves.iter().enumerate() {
+        let name = d.state_labels[i].clone();
+        series.push(Series::line(Some(name), xs, ys, PALETTE[i]));
+    }
+    let points = d
+        .equilibrium
+        .map(|(re, ee)| Point {
+            x: re,
+            y: ee,
+            label: format!(
                 "R_{{e}} = {} bohr, E = {} hartree",
                 ticks::label(re, 3),
                 ticks::label(ee, 4)
-            );
-            let font = ("sans-serif", z.label as f64).into_font();
-            let r = (5.0 * z.k).max(3.0) as i32;
-            let off = (10.0 * z.k) as i32;
-            chart
-                .draw_series(std::iter::once(
-                    EmptyElement::at((re, ee))
-                        + Circle::new((0, 0), r, ShapeStyle::from(&BLACK).filled())
-                        + Text::new(label, (off, off / 2), font),
-                ))
-                .map_err(plot_error)?;
-        }
-        chart
-            .configure_series_labels()
-            .legend_area_size((44.0 * z.k) as u32)
-            .position(SeriesLabelPosition::UpperRight)
-            .margin((14.0 * z.k) as u32)
-            .label_font(("sans-serif", z.label as f64))
-            .background_style(WHITE.mix(0.9))
-            .border_style(RGBColor(150, 150, 150))
-            .draw()
-            .map_err(plot_error)?;
-        root.present().map_err(plot_error)?;
-    }
+            ),
+        })
+        .into_iter()
+        .collect();
     let mut notes = d.footnotes.clone();
     if highest > y1 {
         notes.insert(
             0,
             format!(
                 "Energies above {} hartree (short R) run off the top of the chart.",
-                ticks::label(y1, yd)
+                ticks::label(y1, decimals_over(y0, y1))
             ),
         );
     }
-    finish(
-        &mut canvas,
-        &format!("Energy curves · {}", d.title),
-        &notes,
-        &z,
-    );
-    Ok(canvas.downsample(SUPERSAMPLE))
+    let chart = Chart {
+        title: format!("Energy curves · {}", d.title),
+        width: d.width,
+        background: Colour::WHITE,
+        x: Axis {
+            name: "R / bohr".into(),
+            lo: x0,
+            hi: x1,
+        },
+        y: Axis {
+            name: "E / hartree".into(),
+            lo: y0,
+            hi: y1,
+        },
+        twin: Some(Twin::unit("E / eV", HARTREE_IN_EV)),
+        series,
+        verticals: Vec::new(),
+        points,
+        notes,
+        legend: true,
+        legend_headroom: false,
+    };
+    Ok(draw(&chart).canvas)
 }
 
 pub fn integrals(d: &CurveData) -> Result<Canvas> {
-    let z = Sizes::new(d.width * SUPERSAMPLE);
-    let height = (d.width as f32 * 0.62) as u32 * SUPERSAMPLE;
-    let mut canvas = Canvas::new(d.width * SUPERSAMPLE, height, Colour::WHITE);
     let (x0, x1) = (d.r[0], d.r[d.r.len() - 1]);
     let jk = d.coulomb.iter().chain(&d.exchange).copied();
     let (lo, hi) = jk.fold((0.0f64, 0.0f64), |(a, b), v| (a.min(v), b.max(v)));
     let (y0, y1) = padded(lo, hi, 0.05);
-    let yd = axis_decimals(y0, y1, 8);
-    let xd = axis_decimals(x0, x1, 10);
-    let bottom = (2.0 * 1.35 * z.foot + 14.0 * z.k) as u32;
-    let legend = (30.0 * z.k) as i32;
-    {
-        let root = CanvasBackend {
-            canvas: &mut canvas,
-        }
-        .into_drawing_area();
-        let mut chart = ChartBuilder::on(&root)
-            .margin_top((z.margin_top() + 0.5 * z.label) as u32)
-            .margin_bottom(bottom)
-            .margin_left((16.0 * z.k) as u32)
-            .margin_right((16.0 * z.k) as u32)
-            .x_label_area_size((3.2 * z.label) as u32)
-            .y_label_area_size((5.5 * z.label) as u32)
-            .right_y_label_area_size((5.0 * z.label) as u32)
-            .build_cartesian_2d(x0..x1, y0..y1)
-            .map_err(plot_error)?
-            .set_secondary_coord(x0..x1, 0.0..1.05);
-        chart
-            .configure_mesh()
-            .set_all_tick_mark_size((6.0 * z.k) as u32)
-            .axis_style(ShapeStyle::from(&BLACK).stroke_width(z.thin))
-            .light_line_style(TRANSPARENT)
-            .bold_line_style(RGBColor(218, 218, 218))
-            .label_style(("sans-serif", z.label as f64))
-            .axis_desc_style(("sans-serif", z.desc as f64))
-            .x_desc("R / bohr")
-            .y_desc("J, K / hartree")
-            .x_labels(10)
-            .y_labels(8)
-            .x_label_formatter(&|v| ticks::label(*v, xd))
-            .y_label_formatter(&|v| ticks::label(*v, yd))
-            .draw()
-            .map_err(plot_error)?;
-        chart
-            .configure_secondary_axes()
-            .set_all_tick_mark_size((6.0 * z.k) as u32)
-            .axis_style(ShapeStyle::from(&BLACK).stroke_width(z.thin))
-            .label_style(("sans-serif", z.label as f64))
-            .axis_desc_style(("sans-serif", z.desc as f64))
-            .y_desc("S (dimensionless)")
-            .y_labels(6)
-            .y_label_formatter(&|v| ticks::label(*v, 1))
-            .draw()
-            .map_err(plot_error)?;
-        if y0 < 0.0 && y1 > 0.0 {
-            chart
-                .draw_series(LineSeries::new(
-                    [(x0, 0.0), (x1, 0.0)],
-                    ShapeStyle::from(&RGBColor(120, 120, 120)).stroke_width(z.thin),
-                ))
-                .map_err(plot_error)?;
-        }
-        let series = [
-            ("J (Coulomb), left axis", &d.coulomb),
-            ("K (exchange), left axis", &d.exchange),
-        ];
-        for (i, (name, ys)) in series.into_iter().enumerate() {
-            let style = ShapeStyle::from(&PALETTE[i + 2]).stroke_width(z.line);
-            chart
-                .draw_series(LineSeries::new(
-                    d.r.iter().copied().zip(ys.iter().copied()),
-                    style,
-                ))
-                .map_err(plot_error)?
-                .label(name)
-                .legend(move |(x, y)| PathElement::new([(x, y), (x + legend, y)], style));
-        }
-        let s_style = ShapeStyle::from(&PALETTE[0]).stroke_width(z.line);
-        chart
-            .draw_secondary_series(DashedLineSeries::new(
-                d.r.iter().copied().zip(d.overlap.iter().copied()),
-                (10.0 * z.k) as i32,
-                (6.0 * z.k) as i32,
-                s_style,
-            ))
-            .map_err(plot_error)?
-            .label("S (overlap), right axis")
-            .legend(move |(x, y)| PathElement::new([(x, y), (x + legend, y)], s_style));
-        chart
-            .configure_series_labels()
-            .legend_area_size((44.0 * z.k) as u32)
-            .position(SeriesLabelPosition::UpperRight)
-            .margin((14.0 * z.k) as u32)
-            .label_font(("sans-serif", z.label as f64))
-            .background_style(WHITE.mix(0.9))
-            .border_style(RGBColor(150, 150, 150))
-            .draw()
-            .map_err(plot_error)?;
-        root.present().map_err(plot_error)?;
+    let zero_x = [x0, x1];
+    let zero_y = [0.0, 0.0];
+    let mut series = Vec::new();
+    if y0 < 0.0 && y1 > 0.0 {
+        series.push(Series {
+            width: size::THIN,
+            ..Series::line(None, &zero_x, &zero_y, Colour::rgb(120, 120, 120))
+        });
     }
-    let notes = [
+    let jk = [
+        ("J (Coulomb), left axis", &d.coulomb),
+        ("K (exchange), left axis", &d.exchange),
+    ];
+    for (i, (name, ys)) in jk.into_iter().enumerate() {
+        series.push(Series::line(Some(name.into()), &d.r, ys, PALETTE[i + 2]));
+    }
+    series.push(Series {
+        dash: Some([10.0, 6.0]),
+        on_twin: true,
+        ..Series::line(
+            Some("S (overlap), right axis".into()),
+            &d.r,
+            &d.overlap,
+            PALETTE[0],
+        )
+    });
+    let notes = vec![
         "J = H_{AA} − E_{atom}, K = H_{AB} − E_{atom}S with E_{atom} = ζ^{2}/2 − Zζ; H includes the nuclear repulsion Z^{2}/R.".to_string(),
         d.footnotes.last().cloned().unwrap_or_default(),
     ];
-    finish(
-        &mut canvas,
-        &format!("Overlap, Coulomb and exchange integrals · {}", d.title),
-        &notes,
-        &z,
-    );
-    Ok(canvas.downsample(SUPERSAMPLE))
+    let chart = Chart {
+        title: format!("Overlap, Coulomb and exchange integrals · {}", d.title),
+        width: d.width,
+        background: Colour::WHITE,
+        x: Axis {
+            name: "R / bohr".into(),
+            lo: x0,
+            hi: x1,
+        },
+        y: Axis {
+            name: "J, K / hartree".into(),
+            lo: y0,
+            hi: y1,
+        },
+        twin: Some(Twin::spanning("S (dimensionless)", (y0, y1), (0.0, 1.05))),
+        series,
+        verticals: Vec::new(),
+        points: Vec::new(),
+        notes,
+        legend: true,
+        legend_headroom: false,
+    };
+    Ok(draw(&chart).canvas)
 }
 
 #[cfg(test)]
