@@ -92,7 +92,7 @@ pub fn separations_in(from: f64, to: f64, step: f64, unit: LengthUnit) -> Result
     // Counted in f64 first: a cast of a huge quotient to usize would saturate and
     // the + 1 wrap to zero separations.
     let count = ((to - from) / step + 1e-9).floor() + 1.0;
-    if !(count <= MAX_SEPARATIONS as f64) {
+    if count > MAX_SEPARATIONS as f64 {
         return Err(Error::input(format!(
             "the scan would have {count:.3e} points, more than {MAX_SEPARATIONS}; use a larger --step"
         )));
