@@ -18,7 +18,7 @@ mod volume;
 
 use clap::{Parser, Subcommand};
 
-use crate::error::{Error, Kind};
+use crate::error::Error;
 
 type Result<T, E> = std::result::Result<T, E>;
 
@@ -108,10 +108,7 @@ pub fn report(e: &Error) -> i32 {
     if let Some(h) = &e.hint {
         eprintln!("hint: {h}");
     }
-    match e.kind {
-        Kind::Input => 2,
-        Kind::Internal => 1,
-    }
+    e.kind.exit_status()
 }
 
 /// Help and version go to standard output with status 0; `lobecast` alone prints

@@ -135,7 +135,7 @@ pub fn load_with(path: &Path, options: &LoadOptions) -> Result<Model> {
         return from_orbitals(path, vec![path.to_path_buf()]);
     }
     let text = std::fs::read_to_string(path)
-        .map_err(|e| Error::input(format!("cannot read model file {}: {e}", path.display())))?;
+        .map_err(|e| Error::reading(format!("model file {}", path.display()), e))?;
     parse(&text, path)
 }
 
@@ -158,18 +158,17 @@ fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
         ))
         .with_hint("add --method extended-huckel (and --charge Q for an ion)")
     })?;
-    let text = std::fs::read_to_string(path)
-        .map_err(|e| Error::input(format!("cannot read xyz file {name}: {e}")))?;
+    let text =
+        std::fs::read_to_string(path).map_err(|e| Error::reading(format!("xyz file {name}"), e))?;
     let frame = parse_xyz(&text, &name, LengthUnit::Angstrom)?;
     if frame.more_frames {
         eprintln!("note: {name} holds several frames; using the first");
     }
-    let molecule = Molecule::new(frame.atoms, options.charge.unwrap_or(0))
-        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+    let molecule =
+        Molecule::new(frame.atoms, options.charge.unwrap_or(0)).map_err(|e| e.context(&name))?;
     match method {
         MethodKind::ExtendedHuckel => {
-            huckel_coverage(&molecule)
-                .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+            huckel_coverage(&molecule).map_err(|e| e.context(&name))?;
             let huckel = HuckelOptions::default();
             // Built once here so that a missing parameter is refused on reading.
             valence_basis(&molecule, &huckel)?;
@@ -250,8 +249,7 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
             off_diagonal: file.orbitals.off_diagonal.unwrap_or_default(),
             parameters: file.orbitals.parameters.clone().unwrap_or_default(),
         };
-        o.check()
-            .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+        o.check().map_err(|e| e.context(&name))?;
         Some(o)
     } else if huckel_keys {
         return Err(Error::input(format!(
@@ -304,10 +302,7 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
         (None, Some(xyz)) => {
             let xyz_path = folder.join(&xyz);
             let text = std::fs::read_to_string(&xyz_path).map_err(|e| {
-                Error::input(format!(
-                    "{name}: cannot read xyz file {}: {e}",
-                    xyz_path.display()
-                ))
+                Error::reading(format!("xyz file {}", xyz_path.display()), e).context(&name)
             })?;
             let frame = parse_xyz(&text, &xyz_path.display().to_string(), m.units)?;
             inputs.push(xyz_path);
@@ -315,11 +310,10 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
         }
     };
     crate::chem::molecule::check_separations(&atoms, |_| String::new())
-        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
-    let molecule = Molecule::new(atoms, m.charge)
-        .map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+        .map_err(|e| e.context(&name))?;
+    let molecule = Molecule::new(atoms, m.charge).map_err(|e| e.context(&name))?;
     if huckel.is_some() {
-        huckel_coverage(&molecule).map_err(|e| Error::input(format!("{name}: {}", e.message)))?;
+        huckel_coverage(&molecule).map_err(|e| e.context(&name))?;
     }
     let method = match (&spec, huckel) {
         (Some(spec), _) => Method::OneElectron {

@@ -238,7 +238,7 @@ impl Outputs {
         let name = self.name(slot);
         self.writer(slot)
             .write_all(bytes)
-            .map_err(|e| Error::internal(format!("writing {name} failed: {e}")))
+            .map_err(|e| Error::io(format!("writing {name}"), e))
     }
 
     /// The name of an output as given, for messages.
@@ -256,9 +256,8 @@ impl Outputs {
         for item in self.items {
             match item {
                 Open::Stdout(mut s) => {
-                    s.flush().map_err(|e| {
-                        Error::internal(format!("writing standard output failed: {e}"))
-                    })?;
+                    s.flush()
+                        .map_err(|e| Error::io("writing standard output", e))?;
                     names.push("standard output".into());
                 }
                 Open::File(p) => names.push(commit_one(p)?),
@@ -273,7 +272,7 @@ fn commit_one(mut p: Pending) -> Result<String> {
     p.tmp
         .as_file_mut()
         .flush()
-        .map_err(|e| Error::internal(format!("writing {shown} failed: {e}")))?;
+        .map_err(|e| Error::io(format!("writing {shown}"), e))?;
     // Recheck: the target may have become a folder or device since the plan.
     Target::check(&p.real)?;
     let Pending {
@@ -282,12 +281,8 @@ fn commit_one(mut p: Pending) -> Result<String> {
         _registered,
         ..
     } = p;
-    tmp.persist(&real).map_err(|e| {
-        Error::internal(format!(
-            "cannot move the finished {shown} into place: {}",
-            e.error
-        ))
-    })?;
+    tmp.persist(&real)
+        .map_err(|e| Error::io(format!("moving the finished {shown} into place"), e.error))?;
     Ok(shown)
 }
 

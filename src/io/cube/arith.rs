@@ -108,7 +108,7 @@ pub fn write_weighted_sum<W: Write>(
     terms: &mut [Term],
     out: &mut W,
 ) -> Result<()> {
-    let io = |e: std::io::Error| Error::internal(format!("writing the cube file failed: {e}"));
+    let io = |e: std::io::Error| Error::io("writing the cube file", e);
     out.write_all(header.text().as_bytes()).map_err(io)?;
     let row = header.grid.counts[2];
     let total = header.grid.point_count();

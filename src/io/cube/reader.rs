@@ -73,8 +73,7 @@ impl std::fmt::Debug for CubeReader {
 impl CubeReader {
     /// Opens a cube file (plain or gzip) and parses its header.
     pub fn open(path: &Path) -> Result<Self> {
-        let file = File::open(path)
-            .map_err(|e| Error::input(format!("cannot read {}: {e}", path.display())))?;
+        let file = File::open(path).map_err(|e| Error::reading(path.display(), e))?;
         let len = file.metadata().map(|m| m.len()).ok();
         Self::new(file, len, &path.display().to_string())
     }
@@ -142,7 +141,11 @@ impl CubeReader {
     }
 
     fn io_err(&self, e: std::io::Error) -> Error {
-        self.err(self.line, format_args!("cannot read further: {e}"))
+        let message = format!(
+            "{}, line {}: cannot read further: {e}",
+            self.name, self.line
+        );
+        Error::read_failure(message, e)
     }
 
     /// One header line without its line ending; `None` at the end of the file.

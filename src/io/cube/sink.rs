@@ -34,7 +34,7 @@ impl<'a> CubeSink<'a> {
 
     /// Flushes everything, writing the gzip trailer.
     pub fn finish(self) -> Result<()> {
-        let io = |e: std::io::Error| Error::internal(format!("writing the cube file failed: {e}"));
+        let io = |e: std::io::Error| Error::io("writing the cube file", e);
         match self {
             CubeSink::Plain(mut w) => w.flush().map_err(io),
             CubeSink::Gzip(g) => g.finish().map_err(io)?.flush().map_err(io),

@@ -172,7 +172,7 @@ where
     W: Write,
     E: Fn(&Slab, &mut [f64]) + Sync,
 {
-    let io = |e: std::io::Error| Error::internal(format!("writing the cube file failed: {e}"));
+    let io = |e: std::io::Error| Error::io("writing the cube file", e);
     out.write_all(header.text().as_bytes()).map_err(io)?;
     let row_len = header.row_len();
     let fields = header.field_count();
