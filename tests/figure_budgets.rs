@@ -123,7 +123,7 @@ fn cube_over_the_budget_is_refused_with_the_estimate() {
     assert!(!csv.exists());
 }
 
-/// A 3-field cube drawing field 2 holds one field: 100×100×50 points... here 80³ =
+/// A 3-field cube drawing field 2 holds one field: 80³ =
 /// 512 000 points × 8 bytes = 4 MB for one field, 12 MB for three (arithmetic).
 #[test]
 fn a_multi_field_cube_keeps_only_the_field_drawn() {
