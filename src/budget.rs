@@ -69,6 +69,33 @@ pub fn check_memory(estimate: f64, budget: u64, what: &str) -> Result<()> {
     Ok(())
 }
 
+/// Reserves room for exactly `n` more values, turning a refusal by the system (a
+/// memory limit, an exhausted machine) into an error instead of an abort. It is the
+/// same kind of error as an estimate over the budget (exit status 2): the job does
+/// not fit, and asking for less or giving the process more memory fixes it.
+pub fn reserve<T>(v: &mut Vec<T>, n: usize, what: &str) -> Result<()> {
+    v.try_reserve_exact(n).map_err(|_| {
+        let bytes = n as f64 * std::mem::size_of::<T>() as f64;
+        Error::input(format!(
+            "{what} would need about {} of memory, which the system refused to give",
+            show_bytes(bytes)
+        ))
+        .with_hint("free memory or lift the process's memory limit (ulimit -v), or ask for less")
+    })
+}
+
+/// Refuses a job whose estimated work (rough floating-point operations) exceeds
+/// `limit`, naming the estimate; `hint` says how to ask for less.
+pub fn check_work(estimate: f64, limit: f64, what: &str, hint: &str) -> Result<()> {
+    if estimate.is_nan() || estimate > limit {
+        return Err(Error::input(format!(
+            "{what} would take about {estimate:.1e} operations, over the limit of {limit:.0e}"
+        ))
+        .with_hint(hint.to_string()));
+    }
+    Ok(())
+}
+
 /// Refuses a count option outside its documented range, naming the range.
 pub fn check_count(name: &str, value: u64, min: u64, max: u64) -> Result<()> {
     if value < min || value > max {
@@ -101,6 +128,14 @@ mod tests {
         assert!(e.message.contains("7.3 GiB") && e.message.contains("4.0 GiB"));
         assert!(check_memory(f64::NAN, 1 << 30, "x").is_err());
         assert!(check_memory(1e6, 1 << 30, "x").is_ok());
+    }
+
+    #[test]
+    fn refused_reservation_is_an_error() {
+        let mut v: Vec<f64> = Vec::new();
+        let e = reserve(&mut v, usize::MAX / 16, "a test buffer").unwrap_err();
+        assert!(e.message.contains("system refused"), "{}", e.message);
+        assert!(reserve(&mut v, 10, "x").is_ok() && v.capacity() >= 10);
     }
 
     #[test]

@@ -35,6 +35,16 @@ impl XyzFlags {
     }
 }
 
+/// `--memory`, for the commands that hold large data (same parsing and default as
+/// `solve`'s). Every refusal over the budget names the estimate and this option.
+#[derive(Debug, Args, Clone)]
+pub struct MemoryFlag {
+    /// Memory budget (e.g. 512M, 8G): a job estimated to need more is refused
+    /// before it starts, with the estimate
+    #[arg(long, value_name = "SIZE", default_value = crate::budget::DEFAULT_MEMORY_TEXT, value_parser = crate::budget::parse_size)]
+    pub memory: u64,
+}
+
 /// Loads a model file, an orbital file, or an XYZ file with the method flags.
 pub fn load_model_with(path: &Path, flags: &XyzFlags) -> Result<Model> {
     model::load_with(path, &flags.options()?)

@@ -8,6 +8,7 @@ mod curve_charts;
 mod curve_report;
 pub mod demo;
 pub mod field_scale;
+mod figure_budget;
 mod inspect;
 mod profile;
 mod progress;

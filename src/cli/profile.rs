@@ -77,6 +77,8 @@ pub struct ProfileArgs {
         allow_negative_numbers = true
     )]
     pub size: String,
+    #[command(flatten)]
+    pub memory: super::common::MemoryFlag,
 }
 
 pub fn run(args: ProfileArgs) -> Result<()> {
@@ -102,7 +104,12 @@ pub fn run(args: ProfileArgs) -> Result<()> {
     let from = Endpoint::parse(&args.from, args.units)?;
     let to = Endpoint::parse(&args.to, args.units)?;
     let extend = parse_length("--extend", &args.extend, args.units)?;
-    let source = Source::load(&args.source, &args.xyz.options()?)?;
+    let source = Source::load_for(
+        &args.source,
+        &args.xyz.options()?,
+        Some(&fields),
+        args.memory.memory,
+    )?;
     let mut plan = OutputPlan::new(source.inputs());
     let csv_slot = plan.add_opt(args.csv.as_deref(), false)?;
     let png_slot = plan.add_opt(args.png.as_deref(), true)?;
@@ -116,6 +123,14 @@ pub fn run(args: ProfileArgs) -> Result<()> {
         return Err(Error::input("a profile chart needs fields of one unit")
             .with_hint("draw orbitals and densities in separate charts"));
     }
+    check_cost(
+        &source,
+        &fields,
+        points,
+        args.csv.is_some(),
+        args.png.is_some().then_some(size),
+        args.memory.memory,
+    )?;
     let sampler = source.sampler(&fields)?;
     let s = line.distances(points);
     let points: Vec<[f64; 3]> = s.iter().map(|&d| line.point(d)).collect();
@@ -220,6 +235,47 @@ pub fn run(args: ProfileArgs) -> Result<()> {
     );
     print_notes(&source.notes())?;
     Ok(())
+}
+
+/// Bytes of CSV text per number written (shortest round-trip form, sign, exponent
+/// and separator; common practice for an upper bound).
+const CSV_BYTES_PER_NUMBER: f64 = 26.0;
+
+/// Refuses a profile whose values, points, CSV text and chart (drawn
+/// at its own size) would need more than `budget` bytes with
+/// the source's own values, or whose sampling would take more than `MAX_WORK`
+/// operations, before anything is sampled.
+fn check_cost(
+    source: &Source,
+    fields: &[Field],
+    points: usize,
+    csv: bool,
+    png_width: Option<u32>,
+    budget: u64,
+) -> Result<()> {
+    use super::figure_budget::{MAX_WORK, picture_memory, samples_memory, work_per_point};
+    let n = points as f64;
+    let nf = fields.len();
+    // Points (3 coordinates) and distances, in bohr and in Å.
+    let mut memory = source.held_bytes() + samples_memory(n, nf) + n * (24.0 + 16.0);
+    if csv {
+        memory += n * (4 + nf) as f64 * CSV_BYTES_PER_NUMBER;
+    }
+    if let Some(w) = png_width {
+        let (w, h) = (w as f64, (w as f64 * 0.62).ceil());
+        memory += picture_memory(w, h);
+    }
+    let what = format!("a profile of {nf} field(s) at {points} points");
+    crate::budget::check_memory(memory, budget, &what).map_err(|e| {
+        e.with_hint("raise the budget with --memory, or ask for fewer --points or fields")
+    })?;
+    let work = n * work_per_point(source, fields);
+    crate::budget::check_work(
+        work,
+        MAX_WORK,
+        &what,
+        "ask for fewer --points or fields (the limit is fixed)",
+    )
 }
 
 /// A length with an optional unit suffix: "2", "2ang", "2Å", "3.5bohr". `name` is the

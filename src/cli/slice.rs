@@ -122,6 +122,8 @@ pub struct SliceArgs {
     pub units: LengthUnit,
     #[arg(long, value_enum, default_value_t = Background::White)]
     pub background: Background,
+    #[command(flatten)]
+    pub memory: super::common::MemoryFlag,
 }
 
 pub fn run(args: SliceArgs) -> Result<()> {
@@ -172,7 +174,12 @@ pub fn run(args: SliceArgs) -> Result<()> {
         .as_deref()
         .map(|e| parse_extent(e, args.units))
         .transpose()?;
-    let source = Source::load(&args.source, &args.xyz.options()?)?;
+    let source = Source::load_for(
+        &args.source,
+        &args.xyz.options()?,
+        Some(&fields),
+        args.memory.memory,
+    )?;
     let mut plan = OutputPlan::new(source.inputs());
     let png_slot = plan.add_binary(&args.png)?;
     let molecule = source.molecule();
@@ -275,6 +282,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
         shared_scale: args.shared_scale,
         columns,
     };
+    check_cost(&source, &fields, &figure, &style, args.memory.memory)?;
     let nf = fields.len();
     let mut eval_seconds = 0.0;
     let rendered = render(&figure, &style, |grid| {
@@ -315,6 +323,55 @@ pub fn run(args: SliceArgs) -> Result<()> {
     }
     print_notes(&source.notes())?;
     Ok(())
+}
+
+/// Refuses a figure whose sampled values, picture and source would need more than
+/// `budget` bytes, or whose sampling would take more than `MAX_WORK` operations,
+/// before anything is sampled.
+fn check_cost(
+    source: &Source,
+    fields: &[Field],
+    figure: &Figure,
+    style: &Style,
+    budget: u64,
+) -> Result<()> {
+    use super::figure_budget::{MAX_WORK, picture_memory, samples_memory, work_per_point};
+    let lay = crate::render::slice::layout(figure, style)?;
+    let (nx, ny) = (lay.grid.nx, lay.grid.ny);
+    let points = (nx * ny) as f64;
+    let (width, height) = (lay.width(), lay.height_estimate());
+    let what = format!(
+        "a figure of {} map(s) of {nx}×{ny} samples on a {width}×{height}-px canvas",
+        fields.len()
+    );
+    // Only ways that exist from here: --size 200 cannot shrink, one panel has no
+    // fewer, and more columns than panels do not exist.
+    let mut ways = Vec::new();
+    if fields.len() > 1 {
+        ways.push("fewer panels");
+        if lay.rows() > 1 {
+            ways.push("more --columns");
+        }
+    }
+    if style.width > MIN_SIZE as u32 {
+        ways.push("a smaller --size");
+    }
+    if ways.is_empty() {
+        ways.push("a wider, less tall --extent");
+    }
+    let less = format!("ask for less: {}", ways.join(", "));
+    let memory = source.held_bytes()
+        + samples_memory(points, fields.len())
+        + picture_memory(width as f64, height as f64);
+    crate::budget::check_memory(memory, budget, &what)
+        .map_err(|e| e.with_hint(format!("raise the budget with --memory, or {less}")))?;
+    let work = points * work_per_point(source, fields);
+    crate::budget::check_work(
+        work,
+        MAX_WORK,
+        &what,
+        &format!("{less} (the limit is fixed)"),
+    )
 }
 
 /// Refuses a figure that would show nothing: a plane that misses a cube's box, or a

@@ -14,7 +14,7 @@ use crate::chem::units::hartree_to_ev;
 use crate::chem::{Atom, Molecule};
 use crate::error::{Error, Result};
 use crate::field::{Field, FieldSampler};
-use crate::io::cube::Volume;
+use crate::io::cube::{CubeInfo, CubeReader, Volume};
 use crate::io::model;
 use crate::solve::OrbitalSet;
 
@@ -86,9 +86,21 @@ pub struct FieldInfo {
 }
 
 impl Source {
-    /// Reads a source by its file type.
-    /// `options` say how to treat an XYZ file (method, charge).
+    /// Reads a source by its file type, every stored field of a cube, within the
+    /// default memory budget. `options` say how to treat an XYZ file.
     pub fn load(path: &Path, options: &model::LoadOptions) -> Result<Self> {
+        Self::load_for(path, options, None, crate::budget::DEFAULT_MEMORY)
+    }
+
+    /// Reads a source for drawing `fields` (`None`: all of a cube's stored fields),
+    /// within `memory` bytes: a solve or a cube's kept fields estimated to need more
+    /// are refused before they start. A cube keeps only the stored fields drawn.
+    pub fn load_for(
+        path: &Path,
+        options: &model::LoadOptions,
+        fields: Option<&[Field]>,
+        memory: u64,
+    ) -> Result<Self> {
         let ext = path
             .extension()
             .map(|e| e.to_string_lossy().to_ascii_lowercase())
@@ -96,11 +108,16 @@ impl Source {
         match ext.as_str() {
             "toml" | "json" | "xyz" => {
                 let m = model::load_with(path, options)?;
-                let set = m.solve()?;
+                let set = crate::solve::orbitals_within(&m.molecule, &m.method, memory, &mut |_| {})?;
                 Ok(Source::Orbitals { set, inputs: m.inputs })
             }
             "cube" | "gz" => {
-                let volume = Volume::read(path)?;
+                let reader = CubeReader::open(path)?;
+                let kept = match fields {
+                    Some(f) => f.iter().map(|f| stored_index(reader.info(), f)).collect::<Result<Vec<_>>>()?,
+                    None => (0..reader.info().fields).collect(),
+                };
+                let volume = Volume::keeping(reader, &kept, memory)?;
                 let atoms = volume
                     .info
                     .header
@@ -121,6 +138,14 @@ impl Source {
                 path.display()
             ))
             .with_hint("e.g. examples/h2-cation.toml")),
+        }
+    }
+
+    /// Bytes the source holds for sampling (a cube's kept values; orbitals are small).
+    pub fn held_bytes(&self) -> f64 {
+        match self {
+            Source::Volume { volume, .. } => volume.held_bytes() as f64,
+            Source::Orbitals { .. } => 0.0,
         }
     }
 
@@ -173,7 +198,7 @@ impl Source {
             Source::Volume { volume, .. } => {
                 let idx = fields
                     .iter()
-                    .map(|f| stored_index(volume, f))
+                    .map(|f| held_index(volume, f))
                     .collect::<Result<Vec<_>>>()?;
                 Ok(Sampler::Volume(volume, idx))
             }
@@ -184,7 +209,7 @@ impl Source {
         match self {
             Source::Orbitals { set, .. } => orbital_info(set, field),
             Source::Volume { volume, .. } => {
-                let k = stored_index(volume, field)?;
+                let k = held_index(volume, field)?;
                 let signed = volume.field_values(k).any(|v| v < 0.0);
                 // lobecast's own cubes name each field's unit on the comment line.
                 let info = &volume.info;
@@ -211,16 +236,23 @@ impl Source {
     }
 }
 
+/// The stored field a `--field` means, which must be among those read.
+fn held_index(volume: &Volume, field: &Field) -> Result<usize> {
+    let k = stored_index(&volume.info, field)?;
+    if !volume.holds(k) {
+        return Err(Error::internal(format!(
+            "stored field {} was not read from the cube file",
+            k + 1
+        )));
+    }
+    Ok(k)
+}
+
 /// Which stored field of a cube a `--field` means: `stored:K`, or `orbital:N` where the
 /// file's orbital-index line lists N.
-fn stored_index(volume: &Volume, field: &Field) -> Result<usize> {
-    let nf = volume.fields();
-    let listed = volume
-        .info
-        .header
-        .orbital_numbers
-        .clone()
-        .unwrap_or_default();
+fn stored_index(info: &CubeInfo, field: &Field) -> Result<usize> {
+    let nf = info.fields;
+    let listed = info.header.orbital_numbers.clone().unwrap_or_default();
     match field {
         Field::Stored(k) if *k <= nf => Ok(k - 1),
         Field::Orbital(crate::solve::OrbitalSelector::Number(n)) if listed.contains(n) => {

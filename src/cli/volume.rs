@@ -48,6 +48,8 @@ pub struct VolumeArgs {
     /// Output cube file (lengths in bohr; a name ending in .gz is gzip-compressed)
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
+    #[command(flatten)]
+    pub memory: super::common::MemoryFlag,
     /// Refuse to write a file larger than this many bytes
     #[arg(long, default_value_t = 4_000_000_000, value_name = "BYTES")]
     pub max_bytes: u64,
@@ -64,7 +66,12 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let mut plan = OutputPlan::new(&model.inputs);
     let slot = plan.add(&args.out)?;
     check_lengths(&args)?;
-    let set = model.solve()?;
+    let set = crate::solve::orbitals_within(
+        &model.molecule,
+        &model.method,
+        args.memory.memory,
+        &mut |_| {},
+    )?;
     let sampler = FieldSampler::new(&set, &fields)?;
     let padding = args
         .padding

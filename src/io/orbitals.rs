@@ -164,7 +164,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             position: a.position.map(|x| x * length),
         });
     }
-    elements_check(&atoms).map_err(|e| e.context(&name))?;
+    elements_check(&atoms).map_err(|e| e.context(name))?;
     let nbf = doc.basis.len();
     let estimate =
         8.0 * (2.0 * (nbf as f64).powi(2) + 2.0 * (doc.orbitals.len() as f64) * nbf as f64);
@@ -272,7 +272,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     let inferred = (nuclear - electrons).round();
     let whole = (electrons - electrons.round()).abs() <= 1e-6;
     let plausible = inferred.abs() <= MAX_SHOWN_CHARGE;
-    let mut molecule = Molecule::new(atoms, inferred as i32).map_err(|e| e.context(&name))?;
+    let mut molecule = Molecule::new(atoms, inferred as i32).map_err(|e| e.context(name))?;
     molecule.charge_known = whole && plausible;
     let mut notes = doc.notes.clone();
     if whole && !plausible {

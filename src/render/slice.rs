@@ -221,14 +221,47 @@ pub fn columns_for(n: usize, asked: usize) -> usize {
     }
 }
 
-/// Lays the figure out, asks `sample` for the values of every panel at the map's
-/// pixel centres (one `Vec` per panel, row-major), and draws it. The figure is
-/// `style.width` wide, or wider when that would leave maps under `MIN_MAP` pixels.
-pub fn render(
-    fig: &Figure,
-    style: &Style,
-    sample: impl FnOnce(&PixelGrid) -> Vec<Vec<f64>>,
-) -> Result<Rendered> {
+/// Where the maps go, known before any value is sampled, so that a caller can
+/// estimate the cost of a figure first.
+#[derive(Debug, Clone)]
+pub struct Layout {
+    pub grid: PixelGrid,
+    cols: usize,
+    rows: usize,
+    width: f32,
+    map_w: f32,
+    cell_extra: f32,
+    own_bars: bool,
+}
+
+impl Layout {
+    /// Width of the figure in pixels.
+    pub fn width(&self) -> u32 {
+        self.width as u32
+    }
+
+    /// Rows of maps.
+    pub fn rows(&self) -> usize {
+        self.rows
+    }
+
+    /// An upper estimate of the figure's height in pixels: the rows of maps with
+    /// their headings and axes, plus room for a title and footnotes of a few lines
+    /// each (`TEXT_ALLOWANCE`).
+    pub fn height_estimate(&self) -> u32 {
+        let s = Sizes::new();
+        let row_h = 1.6 * s.heading + self.grid.ny as f32 + s.bottom;
+        (self.rows as f32 * row_h + 2.0 * s.margin + TEXT_ALLOWANCE).ceil() as u32
+    }
+}
+
+/// Pixels allowed for the title and footnotes in `Layout::height_estimate`.
+const TEXT_ALLOWANCE: f32 = 600.0;
+
+/// Lays the figure out: columns, rows, the figure's width and the pixel grid of
+/// each map. The figure is `style.width` wide, or wider when that would leave maps
+/// under `MIN_MAP` pixels.
+pub fn layout(fig: &Figure, style: &Style) -> Result<Layout> {
     check(fig, style)?;
     let s = Sizes::new();
     let n = fig.panels.len();
@@ -248,12 +281,41 @@ pub fn render(
         return Err(Error::input("the window is too tall for its width")
             .with_hint("give --extent W,H with a less extreme ratio"));
     }
-    let grid = PixelGrid {
-        plane: fig.plane.clone(),
-        window: fig.window,
-        nx,
-        ny,
-    };
+    Ok(Layout {
+        grid: PixelGrid {
+            plane: fig.plane.clone(),
+            window: fig.window,
+            nx,
+            ny,
+        },
+        cols,
+        rows,
+        width,
+        map_w,
+        cell_extra,
+        own_bars,
+    })
+}
+
+/// Lays the figure out (`layout`), asks `sample` for the values of every panel at
+/// the map's pixel centres (one `Vec` per panel, row-major), and draws it.
+pub fn render(
+    fig: &Figure,
+    style: &Style,
+    sample: impl FnOnce(&PixelGrid) -> Vec<Vec<f64>>,
+) -> Result<Rendered> {
+    let Layout {
+        grid,
+        cols,
+        rows,
+        width,
+        map_w,
+        cell_extra,
+        own_bars,
+    } = layout(fig, style)?;
+    let s = Sizes::new();
+    let n = fig.panels.len();
+    let (nx, ny) = (grid.nx, grid.ny);
     let values = sample(&grid);
     assert_eq!(values.len(), n, "one set of values per panel");
     let peaks: Vec<f64> = values

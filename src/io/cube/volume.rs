@@ -1,18 +1,31 @@
 //! A cube file held in memory, for commands that need random access to the values
 //! (slices and surfaces interpolate it at arbitrary points). Statistics over files of
 //! any size do not need this: they stream (see `stats`).
+//!
+//! Only the stored fields a command draws are kept, and their memory (points × kept
+//! fields × 8 bytes) is checked against the caller's budget and reserved in one
+//! piece before any value is read, so a large file is refused with the estimate, or
+//! with the system's refusal, instead of aborting part-way. Values stay f64: the
+//! reader accepts exponents up to ±99, beyond the range of f32, and keeps every
+//! stored value exactly as written.
 
 use std::path::Path;
 
 use super::arith::compare_grids;
 use super::reader::{CubeInfo, CubeReader};
+use crate::budget::{DEFAULT_MEMORY, check_memory, reserve};
 use crate::error::{Error, Result};
+
+/// Bytes per value held (f64).
+pub const BYTES_PER_VALUE: usize = 8;
 
 #[derive(Debug, Clone)]
 pub struct Volume {
     pub info: CubeInfo,
-    /// All values in file order: point (i, j, k) with k fastest, the fields of one
-    /// point together.
+    /// The stored fields held (from 0, ascending, each once).
+    pub kept: Vec<usize>,
+    /// The values of the kept fields in file order: point (i, j, k) with k fastest,
+    /// the kept fields of one point together.
     pub values: Vec<f64>,
     /// Inverse of the matrix whose columns are the three step vectors: turns a
     /// displacement from the origin into fractional grid indices.
@@ -20,33 +33,108 @@ pub struct Volume {
 }
 
 impl Volume {
-    /// Reads a whole cube file (plain or gzip).
+    /// Reads a whole cube file (plain or gzip), every field, within the default
+    /// memory budget.
     pub fn read(path: &Path) -> Result<Self> {
         Self::from_reader(CubeReader::open(path)?)
     }
 
-    /// Reads the values that follow an already parsed header. Memory grows with the
-    /// values actually present, never with what a header merely claims.
-    pub fn from_reader(mut r: CubeReader) -> Result<Self> {
-        let total = r.info().value_count();
-        let mut values = Vec::with_capacity(total.min(1 << 22));
-        let mut chunk = vec![0.0; total.clamp(1, 1 << 16)];
+    /// Reads the values that follow an already parsed header, every field, within
+    /// the default memory budget.
+    pub fn from_reader(r: CubeReader) -> Result<Self> {
+        let all: Vec<usize> = (0..r.info().fields).collect();
+        Self::keeping(r, &all, DEFAULT_MEMORY)
+    }
+
+    /// Bytes needed to hold `kept` fields of a cube with `points` points, as an f64
+    /// so that the product cannot wrap.
+    pub fn estimate(points: usize, kept: usize) -> f64 {
+        points as f64 * kept as f64 * BYTES_PER_VALUE as f64
+    }
+
+    /// Reads the values that follow an already parsed header, keeping only the stored
+    /// fields `kept` (from 0; order and repeats do not matter). Refuses before
+    /// reading when they would need more than `budget` bytes.
+    pub fn keeping(mut r: CubeReader, kept: &[usize], budget: u64) -> Result<Self> {
+        let info = r.info().clone();
+        let nf = info.fields;
+        let mut kept = kept.to_vec();
+        kept.sort_unstable();
+        kept.dedup();
+        if let Some(&bad) = kept.iter().find(|&&k| k >= nf) {
+            return Err(Error::input(format!(
+                "{}: stored field {} asked for, but the file holds {nf}",
+                r.name(),
+                bad + 1
+            )));
+        }
+        let [nx, ny, nz] = info.header.grid.counts;
+        let what = format!(
+            "{}: {} of {nf} stored field(s) on {nx}×{ny}×{nz} points",
+            r.name(),
+            kept.len()
+        );
+        check_memory(
+            Self::estimate(info.point_count(), kept.len()),
+            budget,
+            &what,
+        )?;
+        let inverse = invert(info.header.grid.axes).ok_or_else(|| {
+            Error::input(format!("{}: the step vectors span no volume", r.name()))
+        })?;
+        let mut values = Vec::new();
+        reserve(&mut values, info.point_count() * kept.len(), &what)?;
+        let mut keep = vec![false; nf];
+        for &k in &kept {
+            keep[k] = true;
+        }
+        let all = kept.len() == nf;
+        let mut chunk = vec![0.0; info.value_count().clamp(1, 1 << 16)];
+        // Field of the next value read: values come point by point, fields together.
+        let mut field = 0;
         loop {
             let n = r.read_values(&mut chunk)?;
             if n == 0 {
                 break;
             }
-            values.extend_from_slice(&chunk[..n]);
+            if all {
+                values.extend_from_slice(&chunk[..n]);
+                continue;
+            }
+            for &v in &chunk[..n] {
+                if keep[field] {
+                    values.push(v);
+                }
+                field += 1;
+                if field == nf {
+                    field = 0;
+                }
+            }
         }
-        let info = r.info().clone();
-        let inverse = invert(info.header.grid.axes).ok_or_else(|| {
-            Error::input(format!("{}: the step vectors span no volume", r.name()))
-        })?;
         Ok(Volume {
             info,
+            kept,
             values,
             inverse,
         })
+    }
+
+    /// Bytes the values take.
+    pub fn held_bytes(&self) -> usize {
+        self.values.len() * BYTES_PER_VALUE
+    }
+
+    /// Whether stored field `field` (from 0) was kept.
+    pub fn holds(&self, field: usize) -> bool {
+        self.kept.binary_search(&field).is_ok()
+    }
+
+    /// Where stored field `field` sits among the kept ones. Asking for a field that
+    /// was not kept is a bug in the caller, which chose what to keep.
+    fn slot(&self, field: usize) -> usize {
+        self.kept
+            .binary_search(&field)
+            .unwrap_or_else(|_| panic!("stored field {} was not read", field + 1))
     }
 
     pub fn fields(&self) -> usize {
@@ -56,15 +144,15 @@ impl Volume {
     /// The value of `field` (from 0) at grid point (i, j, k).
     pub fn at(&self, field: usize, i: usize, j: usize, k: usize) -> f64 {
         let [_, ny, nz] = self.info.header.grid.counts;
-        self.values[((i * ny + j) * nz + k) * self.info.fields + field]
+        self.values[((i * ny + j) * nz + k) * self.kept.len() + self.slot(field)]
     }
 
     /// The values of one field, in cube order.
     pub fn field_values(&self, field: usize) -> impl Iterator<Item = f64> + '_ {
         self.values
             .iter()
-            .skip(field)
-            .step_by(self.info.fields)
+            .skip(self.slot(field))
+            .step_by(self.kept.len())
             .copied()
     }
 
@@ -132,7 +220,8 @@ impl Volume {
             "this volume",
             "the other",
         )?;
-        let (fa, fb) = (self.info.fields, other.info.fields);
+        let (fa, fb) = (self.kept.len(), other.kept.len());
+        let (into, field) = (self.slot(into), other.slot(field));
         for (dst, src) in self
             .values
             .chunks_exact_mut(fa)
