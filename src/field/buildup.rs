@@ -30,7 +30,9 @@ pub fn buildup(set: &OrbitalSet) -> Result<Buildup> {
     let sampler = FieldSampler::new(set, &fields)?;
     let (a, b) = (atoms[0].position, atoms[1].position);
     let rule = between_planes(a, b, 1.0);
-    let between = rule
+    // Chunk sums are gathered in order and added in order, so the result does not
+    // depend on how rayon splits the work (a parallel reduce would).
+    let partial: Vec<[f64; 2]> = rule
         .par_chunks(4096)
         .map(|chunk| {
             let pts: Vec<[f64; 3]> = chunk.iter().map(|(p, _)| *p).collect();
@@ -43,7 +45,10 @@ pub fn buildup(set: &OrbitalSet) -> Result<Buildup> {
                     [acc[0] + w * f[0], acc[1] + w * f[1]]
                 })
         })
-        .reduce(|| [0.0; 2], |x, y| [x[0] + y[0], x[1] + y[1]]);
+        .collect();
+    let between = partial
+        .iter()
+        .fold([0.0; 2], |x, y| [x[0] + y[0], x[1] + y[1]]);
     let mid = [std::array::from_fn(|k| 0.5 * (a[k] + b[k]))];
     let mut midpoint = [0.0; 2];
     sampler.evaluate(&mid, &mut midpoint);
