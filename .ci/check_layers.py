@@ -13,7 +13,7 @@ from pathlib import Path
 
 LAYERS = [
     "error", "budget", "numerics", "chem", "basis", "integrals", "solve", "grid",
-    "field", "surface", "io", "output", "render", "plot", "cli",
+    "field", "surface", "io", "source", "output", "render", "plot", "cli",
 ]
 
 

@@ -8,7 +8,6 @@
 pub mod basis;
 pub mod budget;
 pub mod chem;
-pub mod cli;
 pub mod error;
 pub mod field;
 pub mod grid;
@@ -19,5 +18,6 @@ pub mod output;
 pub mod plot;
 pub mod render;
 pub mod solve;
+pub mod source;
 
 pub use error::{Error, Result};

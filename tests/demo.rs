@@ -17,7 +17,14 @@ fn quick_demo_writes_every_listed_file() {
         "{stdout}\n{}",
         String::from_utf8_lossy(&out.stderr)
     );
-    let files = lobecast::cli::demo::listed_files(dir.path()).unwrap();
+    // GALLERY.md lists each file in a table row starting "| `NAME`".
+    let gallery = std::fs::read_to_string(dir.path().join("GALLERY.md")).unwrap();
+    let files: Vec<std::path::PathBuf> = gallery
+        .lines()
+        .filter_map(|l| l.strip_prefix("| `"))
+        .filter_map(|l| l.split_once('`'))
+        .map(|(f, _)| dir.path().join(f))
+        .collect();
     assert!(files.len() >= 15, "the gallery lists {} files", files.len());
     for f in &files {
         let bytes = std::fs::read(f).unwrap_or_else(|e| panic!("{}: {e}", f.display()));

@@ -8,9 +8,9 @@ use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 use std::time::{Duration, Instant};
 
-use lobecast::cli::source::Source;
 use lobecast::field::Field;
 use lobecast::io::cube::{CubeReader, Volume};
+use lobecast::source::Source;
 
 fn bin() -> PathBuf {
     PathBuf::from(env!("CARGO_BIN_EXE_lobecast"))

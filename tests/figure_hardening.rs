@@ -274,7 +274,7 @@ fn extended_huckel_titles_give_energies_in_ev() {
         png.to_str().unwrap(),
     ]);
     assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
-    let info = lobecast::cli::source::Source::load(
+    let info = lobecast::source::Source::load(
         &example("ethylene.xyz"),
         &lobecast::io::model::LoadOptions {
             method: Some(lobecast::solve::MethodKind::ExtendedHuckel),
@@ -298,7 +298,7 @@ fn extended_huckel_titles_give_energies_in_ev() {
         .unwrap();
     assert!((-14.5..-12.0).contains(&e), "{e}");
     // A one-electron model keeps hartree first.
-    let h = lobecast::cli::source::Source::load(&h2(), &Default::default())
+    let h = lobecast::source::Source::load(&h2(), &Default::default())
         .unwrap()
         .info(&lobecast::field::Field::parse("orbital:1").unwrap())
         .unwrap();

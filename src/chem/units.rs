@@ -9,7 +9,7 @@ pub const BOHR_IN_ANGSTROM: f64 = 0.529_177_210_903;
 pub const HARTREE_IN_EV: f64 = 27.211_386_245_988;
 
 /// A length unit accepted in model files and on the command line.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Default, clap::ValueEnum)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Default)]
 #[serde(rename_all = "lowercase")]
 pub enum LengthUnit {
     #[default]
@@ -30,6 +30,17 @@ impl LengthUnit {
         match self {
             LengthUnit::Angstrom => "Å",
             LengthUnit::Bohr => "bohr",
+        }
+    }
+}
+
+impl std::str::FromStr for LengthUnit {
+    type Err = String;
+    fn from_str(s: &str) -> Result<Self, String> {
+        match s.to_ascii_lowercase().as_str() {
+            "angstrom" => Ok(LengthUnit::Angstrom),
+            "bohr" => Ok(LengthUnit::Bohr),
+            _ => Err(format!("unknown length unit {s:?} (angstrom or bohr)")),
         }
     }
 }

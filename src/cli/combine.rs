@@ -5,13 +5,13 @@ use std::path::PathBuf;
 
 use clap::Args;
 
-use crate::error::{Error, Result};
-use crate::io::cube::arith::{
+use lobecast::error::{Error, Result};
+use lobecast::io::cube::arith::{
     Term, atoms_difference, compare_grids, stored_units, write_weighted_sum,
 };
-use crate::io::cube::sink::CubeSink;
-use crate::io::cube::{CubeHeader, CubeReader};
-use crate::output::OutputPlan;
+use lobecast::io::cube::sink::CubeSink;
+use lobecast::io::cube::{CubeHeader, CubeReader};
+use lobecast::output::OutputPlan;
 
 #[derive(Debug, Args)]
 pub struct CombineArgs {

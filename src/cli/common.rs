@@ -4,11 +4,11 @@ use std::path::Path;
 
 use clap::Args;
 
-use crate::budget::check_count;
-use crate::chem::LengthUnit;
-use crate::error::{Error, Result};
-use crate::io::model::{self, LoadOptions, Model};
-use crate::solve::MethodKind;
+use lobecast::budget::check_count;
+use lobecast::chem::LengthUnit;
+use lobecast::error::{Error, Result};
+use lobecast::io::model::{self, LoadOptions, Model};
+use lobecast::solve::MethodKind;
 
 /// Loads a model file (TOML) or an orbital file.
 pub fn load_model(path: &Path) -> Result<Model> {
@@ -41,7 +41,7 @@ impl XyzFlags {
 pub struct MemoryFlag {
     /// Memory budget (e.g. 512M, 8G): a job estimated to need more is refused
     /// before it starts, with the estimate
-    #[arg(long, value_name = "SIZE", default_value = crate::budget::DEFAULT_MEMORY_TEXT, value_parser = crate::budget::parse_size)]
+    #[arg(long, value_name = "SIZE", default_value = lobecast::budget::DEFAULT_MEMORY_TEXT, value_parser = lobecast::budget::parse_size)]
     pub memory: u64,
 }
 
@@ -60,13 +60,13 @@ pub fn length(value: f64, unit: LengthUnit) -> f64 {
 /// ends the output quietly instead of panicking as `println!` would.
 pub fn print_out(text: &str) -> Result<()> {
     use std::io::Write;
-    let written = if crate::output::stdout_taken() {
+    let written = if lobecast::output::stdout_taken() {
         std::io::stderr().lock().write_all(text.as_bytes())
     } else {
         std::io::stdout().lock().write_all(text.as_bytes())
     };
     match written {
-        Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => Err(crate::Error::internal(
+        Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => Err(lobecast::Error::internal(
             format!("cannot write to standard output: {e}"),
         )),
         _ => Ok(()),

@@ -9,15 +9,15 @@ use clap::Args;
 use super::common::{load_model, print_notes, print_out, say};
 use super::curve_charts as charts;
 use super::curve_report as report;
-use crate::basis::{Basis, BasisSpec, Shell};
-use crate::chem::{LengthUnit, Molecule};
-use crate::error::{Error, Result};
-use crate::field::buildup;
-use crate::io::model::Model;
-use crate::output::OutputPlan;
-use crate::solve::curve::{self, ZetaChoice};
-use crate::solve::one_electron::MINIMAL_BASIS_CAVEAT;
-use crate::solve::{Method, OrbitalSet};
+use lobecast::basis::{Basis, BasisSpec, Shell};
+use lobecast::chem::{LengthUnit, Molecule};
+use lobecast::error::{Error, Result};
+use lobecast::field::buildup;
+use lobecast::io::model::Model;
+use lobecast::output::OutputPlan;
+use lobecast::solve::curve::{self, ZetaChoice};
+use lobecast::solve::one_electron::MINIMAL_BASIS_CAVEAT;
+use lobecast::solve::{Method, OrbitalSet};
 
 #[derive(Debug, Args)]
 pub struct CurveArgs {
@@ -33,7 +33,7 @@ pub struct CurveArgs {
     #[arg(long, allow_negative_numbers = true)]
     pub step: f64,
     /// Unit of --from, --to and --step
-    #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
+    #[arg(long, value_parser = super::values::length_unit(), default_value = "angstrom")]
     pub units: LengthUnit,
     /// Choose the 1s exponent ζ that minimises the bonding energy at every R (slater-1s only)
     #[arg(long)]
@@ -94,7 +94,7 @@ fn solve_at(template: &Molecule, spec: &BasisSpec, r: f64) -> Result<OrbitalSet>
     let method = Method::OneElectron {
         basis: spec.build(&molecule)?,
     };
-    crate::solve::orbitals_for(&molecule, &method)
+    lobecast::solve::orbitals_for(&molecule, &method)
 }
 
 /// The most states `--states` reports.
@@ -210,9 +210,9 @@ pub fn run(args: CurveArgs) -> Result<()> {
         let data = chart
             .as_ref()
             .ok_or_else(|| Error::input("--png needs at least two states (--states 2)"))?;
-        files.push((slot, crate::plot::curve::energies(data)?.encode_png()?));
+        files.push((slot, lobecast::plot::curve::energies(data)?.encode_png()?));
         if let Some(slot) = integrals_png {
-            files.push((slot, crate::plot::curve::integrals(data)?.encode_png()?));
+            files.push((slot, lobecast::plot::curve::integrals(data)?.encode_png()?));
         }
         if let (Some(slot), Some(b)) = (buildup_png, &buildups) {
             files.push((slot, charts::buildup(&model, &rs, b)?.encode_png()?));

@@ -1,8 +1,8 @@
 //! The data behind `curve --png`: what the chart module draws, from either path.
 
-use crate::io::model::Model;
-use crate::plot::curve::CurveData;
-use crate::solve::curve::{CurvePoint, Equilibrium, StatesPoint, ZetaChoice, separated_limit};
+use lobecast::io::model::Model;
+use lobecast::plot::curve::CurveData;
+use lobecast::solve::curve::{CurvePoint, Equilibrium, StatesPoint, ZetaChoice, separated_limit};
 
 const UNITS_NOTE: &str = "Total energies at fixed nuclei (nuclear repulsion included); 1 hartree = 27.211386 eV, 1 bohr = 0.529177 Å.";
 const MINIMAL_NOTE: &str = "Minimal basis: energies are variational upper bounds and the bond is too weak; use them for trends.";
@@ -15,7 +15,7 @@ pub fn two_centre(
     choice: ZetaChoice,
 ) -> CurveData {
     let col = |f: fn(&CurvePoint) -> f64| points.iter().map(f).collect::<Vec<f64>>();
-    let formula = crate::render::text::formula_markup(&model.molecule.formula_with_charge());
+    let formula = lobecast::render::text::formula_markup(&model.molecule.formula_with_charge());
     let zeta = match choice {
         ZetaChoice::Fixed(z) => format!("{z}"),
         ZetaChoice::Optimized => "optimised at each R".into(),
@@ -42,7 +42,7 @@ pub fn states(model: &Model, points: &[StatesPoint], eq: Option<(f64, f64)>) -> 
     if points.first().is_none_or(|p| p.energies.len() < 2) {
         return None;
     }
-    let formula = crate::render::text::formula_markup(&model.molecule.formula_with_charge());
+    let formula = lobecast::render::text::formula_markup(&model.molecule.formula_with_charge());
     let zmax = model
         .molecule
         .atoms
@@ -75,12 +75,12 @@ pub fn states(model: &Model, points: &[StatesPoint], eq: Option<(f64, f64)>) -> 
 pub fn buildup(
     model: &Model,
     rs: &[f64],
-    b: &[crate::field::buildup::Buildup],
-) -> crate::Result<crate::render::canvas::Canvas> {
-    use crate::plot::profile::{Profile, Series, draw};
+    b: &[lobecast::field::buildup::Buildup],
+) -> lobecast::Result<lobecast::render::canvas::Canvas> {
+    use lobecast::plot::profile::{Profile, Series, draw};
     let bonding: Vec<f64> = b.iter().map(|x| x.between[0]).collect();
     let antibonding: Vec<f64> = b.iter().map(|x| x.between[1]).collect();
-    let formula = crate::render::text::formula_markup(&model.molecule.formula_with_charge());
+    let formula = lobecast::render::text::formula_markup(&model.molecule.formula_with_charge());
     draw(&Profile {
         title: format!("{formula}: electrons gained between the nuclei"),
         s: rs,
@@ -96,6 +96,6 @@ pub fn buildup(
             "The slab lies between the two planes through the nuclei perpendicular to the bond.".into(),
         ],
         width: 1000,
-        background: crate::render::canvas::Colour::WHITE,
+        background: lobecast::render::canvas::Colour::WHITE,
     })
 }

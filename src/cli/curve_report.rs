@@ -2,10 +2,10 @@
 
 use serde::Serialize;
 
-use crate::chem::units::{bohr_to_angstrom, hartree_to_ev};
-use crate::io::model::Model;
-use crate::solve::curve::{CurvePoint, Equilibrium, StatesPoint, ZetaChoice, separated_limit};
-use crate::solve::one_electron::MINIMAL_BASIS_CAVEAT;
+use lobecast::chem::units::{bohr_to_angstrom, hartree_to_ev};
+use lobecast::io::model::Model;
+use lobecast::solve::curve::{CurvePoint, Equilibrium, StatesPoint, ZetaChoice, separated_limit};
+use lobecast::solve::one_electron::MINIMAL_BASIS_CAVEAT;
 
 /// Everything `curve` prints and writes.
 pub struct Document {
@@ -291,7 +291,7 @@ impl States<'_> {
 pub fn with_buildup(
     mut doc: Document,
     rs: &[f64],
-    b: &[crate::field::buildup::Buildup],
+    b: &[lobecast::field::buildup::Buildup],
 ) -> Document {
     let mut table = String::new();
     for (i, line) in doc.table.lines().enumerate() {

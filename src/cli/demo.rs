@@ -2,15 +2,15 @@
 //! run as a child process of this same binary, so that every file comes with the
 //! exact command that makes it on its own (listed in GALLERY.md).
 
-use std::path::{Path, PathBuf};
+use std::path::PathBuf;
 use std::process::Command;
 use std::time::Instant;
 
 use clap::Args;
 
 use super::common::say;
-use crate::error::{Error, Result};
-use crate::output::write_bytes;
+use lobecast::error::{Error, Result};
+use lobecast::output::write_bytes;
 
 /// The scenario's built-in model: the one-electron hydrogen molecular ion.
 const H2_CATION: &str = include_str!("../../examples/h2-cation.toml");
@@ -244,20 +244,4 @@ fn gallery(steps: &[Step]) -> String {
         }
     }
     g
-}
-
-/// Every file a gallery in `dir` lists (for tests and for users checking a run).
-pub fn listed_files(dir: &Path) -> Result<Vec<PathBuf>> {
-    let text = std::fs::read_to_string(dir.join("GALLERY.md")).map_err(|e| {
-        Error::input(format!(
-            "cannot read {}: {e}",
-            dir.join("GALLERY.md").display()
-        ))
-    })?;
-    Ok(text
-        .lines()
-        .filter_map(|l| l.strip_prefix("| `"))
-        .filter_map(|l| l.split_once('`'))
-        .map(|(f, _)| dir.join(f))
-        .collect())
 }

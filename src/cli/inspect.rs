@@ -7,11 +7,11 @@ use std::path::{Path, PathBuf};
 use clap::Args;
 use serde::Serialize;
 
-use crate::chem::elements::by_number;
-use crate::chem::units::bohr_to_angstrom;
-use crate::error::Result;
-use crate::io::cube::stats::{FieldSummary, Measure, summarize};
-use crate::io::cube::{CubeInfo, CubeReader};
+use lobecast::chem::elements::by_number;
+use lobecast::chem::units::bohr_to_angstrom;
+use lobecast::error::Result;
+use lobecast::io::cube::stats::{FieldSummary, Measure, summarize};
+use lobecast::io::cube::{CubeInfo, CubeReader};
 
 #[derive(Debug, Args)]
 pub struct InspectArgs {
@@ -23,7 +23,7 @@ pub struct InspectArgs {
     pub enclose: f64,
     /// What the fraction is of, instead of choosing by sign: abs (∫|f|) or square
     /// (∫f²; use it for an orbital that happens to be positive everywhere)
-    #[arg(long, value_enum, value_name = "MEASURE")]
+    #[arg(long, value_parser = super::values::measure(), value_name = "MEASURE")]
     pub measure: Option<Measure>,
     /// Print JSON on standard output instead of the report
     #[arg(long)]
@@ -37,7 +37,7 @@ pub fn run(args: InspectArgs) -> Result<()> {
     if args.json {
         let report = JsonReport::new(&args.cube, &info, &fields, args.enclose);
         let text = serde_json::to_string_pretty(&report)
-            .map_err(|e| crate::Error::internal(format!("cannot format JSON: {e}")))?;
+            .map_err(|e| lobecast::Error::internal(format!("cannot format JSON: {e}")))?;
         print_out(&(text + "\n"))
     } else {
         print_out(&report(&args.cube, &info, &fields, args.enclose))

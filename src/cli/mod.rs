@@ -7,19 +7,17 @@ mod curve;
 mod curve_charts;
 mod curve_report;
 pub mod demo;
-pub mod field_scale;
-mod figure_budget;
 mod inspect;
 mod profile;
 mod progress;
 mod slice;
 mod solve;
-pub mod source;
+mod values;
 mod volume;
 
 use clap::{Parser, Subcommand};
 
-use crate::error::Error;
+use lobecast::error::Error;
 
 type Result<T, E> = std::result::Result<T, E>;
 

@@ -7,16 +7,16 @@ use clap::Args;
 
 use super::common::parse_count;
 use super::common::{print_notes, say};
-use super::source::Source;
-use crate::chem::LengthUnit;
-use crate::chem::units::bohr_to_angstrom;
-use crate::error::{Error, Result};
-use crate::field::Field;
-use crate::grid::line::{Endpoint, Line};
-use crate::output::OutputPlan;
-use crate::plot::profile::{Profile, Series, draw};
-use crate::render::Colour;
-use crate::render::text::formula_markup;
+use lobecast::chem::LengthUnit;
+use lobecast::chem::units::bohr_to_angstrom;
+use lobecast::error::{Error, Result};
+use lobecast::field::Field;
+use lobecast::grid::line::{Endpoint, Line};
+use lobecast::output::OutputPlan;
+use lobecast::plot::profile::{Profile, Series, draw};
+use lobecast::render::Colour;
+use lobecast::render::text::formula_markup;
+use lobecast::source::Source;
 
 /// Accepted ranges of the count options (documented in README and `--help`); a
 /// chart 4000 px wide is already far larger than any page or screen needs.
@@ -58,7 +58,7 @@ pub struct ProfileArgs {
     )]
     pub points: String,
     /// Unit of coordinates and of a bare --extend
-    #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
+    #[arg(long, value_parser = super::values::length_unit(), default_value = "angstrom")]
     pub units: LengthUnit,
     /// Write the samples as CSV
     #[arg(long, value_name = "FILE")]
@@ -253,7 +253,7 @@ fn check_cost(
     png_width: Option<u32>,
     budget: u64,
 ) -> Result<()> {
-    use super::figure_budget::{MAX_WORK, picture_memory, samples_memory, work_per_point};
+    use lobecast::source::budget::{MAX_WORK, picture_memory, samples_memory, work_per_point};
     let n = points as f64;
     let nf = fields.len();
     // Points (3 coordinates) and distances, in bohr and in Å.
@@ -266,11 +266,11 @@ fn check_cost(
         memory += picture_memory(w, h);
     }
     let what = format!("a profile of {nf} field(s) at {points} points");
-    crate::budget::check_memory(memory, budget, &what).map_err(|e| {
+    lobecast::budget::check_memory(memory, budget, &what).map_err(|e| {
         e.with_hint("raise the budget with --memory, or ask for fewer --points or fields")
     })?;
     let work = n * work_per_point(source, fields);
-    crate::budget::check_work(
+    lobecast::budget::check_work(
         work,
         MAX_WORK,
         &what,
@@ -325,7 +325,7 @@ fn csv(
     s: &[f64],
     points: &[[f64; 3]],
     values: &[f64],
-    infos: &[super::source::FieldInfo],
+    infos: &[lobecast::source::FieldInfo],
 ) -> String {
     let nf = infos.len();
     let mut t = format!(

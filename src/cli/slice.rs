@@ -6,16 +6,16 @@ use std::time::Instant;
 use clap::{Args, ValueEnum};
 
 use super::common::{parse_count, print_notes, say};
-use super::source::Source;
-use crate::chem::LengthUnit;
-use crate::chem::units::bohr_to_angstrom;
-use crate::error::{Error, Result};
-use crate::field::Field;
-use crate::grid::plane::{Axis, PlaneSpec, Window};
-use crate::output::OutputPlan;
-use crate::render::slice::{Contours, Figure, Nucleus, Panel, Rendered, Style, render};
-use crate::render::text::formula_markup;
-use crate::render::{Colour, Scale};
+use lobecast::chem::LengthUnit;
+use lobecast::chem::units::bohr_to_angstrom;
+use lobecast::error::{Error, Result};
+use lobecast::field::Field;
+use lobecast::grid::plane::{Axis, PlaneSpec, Window};
+use lobecast::output::OutputPlan;
+use lobecast::render::slice::{Contours, Figure, Nucleus, Panel, Rendered, Style, render};
+use lobecast::render::text::formula_markup;
+use lobecast::render::{Colour, Scale};
+use lobecast::source::Source;
 
 /// Default space around the projected nuclei (Å): the 1s tails of hydrogen fall below
 /// 1 % of their peak within it (exp(−4.7) for ζ = 1).
@@ -63,7 +63,7 @@ pub struct SliceArgs {
     /// With --plane atoms:I,J: the direction that, with the bond, spans the plane
     /// [default: the axis most nearly perpendicular to the bond]. With xy, xz or yz:
     /// which of the two axes points up (the other is horizontal)
-    #[arg(long, value_enum)]
+    #[arg(long, value_parser = super::values::axis())]
     pub up: Option<Axis>,
     /// Output PNG file
     #[arg(long, value_name = "FILE")]
@@ -118,7 +118,7 @@ pub struct SliceArgs {
     #[arg(long, value_name = "W[,H]", allow_hyphen_values = true)]
     pub extent: Option<String>,
     /// Unit of --extent and of a plane offset
-    #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
+    #[arg(long, value_parser = super::values::length_unit(), default_value = "angstrom")]
     pub units: LengthUnit,
     #[arg(long, value_enum, default_value_t = Background::White)]
     pub background: Background,
@@ -202,7 +202,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
         );
     }
     let sampler = source.sampler(&fields)?;
-    let largest = super::field_scale::largest(&source, &sampler);
+    let largest = lobecast::source::scale::largest(&source, &sampler);
     let nuclei = molecule
         .atoms
         .iter()
@@ -335,8 +335,8 @@ fn check_cost(
     style: &Style,
     budget: u64,
 ) -> Result<()> {
-    use super::figure_budget::{MAX_WORK, picture_memory, samples_memory, work_per_point};
-    let lay = crate::render::slice::layout(figure, style)?;
+    use lobecast::source::budget::{MAX_WORK, picture_memory, samples_memory, work_per_point};
+    let lay = lobecast::render::slice::layout(figure, style)?;
     let (nx, ny) = (lay.grid.nx, lay.grid.ny);
     let points = (nx * ny) as f64;
     let (width, height) = (lay.width(), lay.height_estimate());
@@ -363,10 +363,10 @@ fn check_cost(
     let memory = source.held_bytes()
         + samples_memory(points, fields.len())
         + picture_memory(width as f64, height as f64);
-    crate::budget::check_memory(memory, budget, &what)
+    lobecast::budget::check_memory(memory, budget, &what)
         .map_err(|e| e.with_hint(format!("raise the budget with --memory, or {less}")))?;
     let work = points * work_per_point(source, fields);
-    crate::budget::check_work(
+    lobecast::budget::check_work(
         work,
         MAX_WORK,
         &what,

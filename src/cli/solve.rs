@@ -5,9 +5,9 @@ use std::path::PathBuf;
 use clap::Args;
 
 use super::common::{XyzFlags, load_model_with, print_notes, print_out, say};
-use crate::chem::units::hartree_to_ev;
-use crate::error::Result;
-use crate::solve::{OrbitalSet, degenerate, orbitals_within};
+use lobecast::chem::units::hartree_to_ev;
+use lobecast::error::Result;
+use lobecast::solve::{OrbitalSet, degenerate, orbitals_within};
 
 #[derive(Debug, Args)]
 pub struct SolveArgs {
@@ -20,7 +20,7 @@ pub struct SolveArgs {
     pub json: Option<PathBuf>,
     /// Memory budget (e.g. 512M, 8G): a solve estimated to need more is refused
     /// before it starts
-    #[arg(long, value_name = "SIZE", default_value = crate::budget::DEFAULT_MEMORY_TEXT, value_parser = crate::budget::parse_size)]
+    #[arg(long, value_name = "SIZE", default_value = lobecast::budget::DEFAULT_MEMORY_TEXT, value_parser = lobecast::budget::parse_size)]
     pub memory: u64,
 }
 
@@ -28,7 +28,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
     let model = load_model_with(&args.model, &args.xyz)?;
     // Planned before anything is printed: with `--json -` the report goes to
     // standard error, so the JSON on standard output stays parseable.
-    let mut plan = crate::output::OutputPlan::new(&model.inputs);
+    let mut plan = lobecast::output::OutputPlan::new(&model.inputs);
     let json = plan.add_opt(args.json.as_deref(), false)?;
     // A long solve (over about 1e11 operations) shows a spinner on standard error
     // when it is a terminal.
@@ -76,7 +76,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
     print_notes(&set.notes)?;
     if let Some(slot) = json {
         let mut out = plan.open()?;
-        out.put(slot, crate::io::orbitals::to_json(&set).as_bytes())?;
+        out.put(slot, lobecast::io::orbitals::to_json(&set).as_bytes())?;
         for name in out.commit()? {
             say!("wrote {name}");
         }

@@ -7,13 +7,13 @@ use std::time::Instant;
 use clap::Args;
 
 use super::common::{XyzFlags, length, load_model_with, print_notes, say};
-use crate::chem::LengthUnit;
-use crate::error::{Error, Result};
-use crate::field::{Field, FieldSampler};
-use crate::grid::{GridBox, Resolution};
-use crate::io::cube::sink::CubeSink;
-use crate::io::cube::{CubeAtom, CubeHeader, write_streaming};
-use crate::output::OutputPlan;
+use lobecast::chem::LengthUnit;
+use lobecast::error::{Error, Result};
+use lobecast::field::{Field, FieldSampler};
+use lobecast::grid::{GridBox, Resolution};
+use lobecast::io::cube::sink::CubeSink;
+use lobecast::io::cube::{CubeAtom, CubeHeader, write_streaming};
+use lobecast::output::OutputPlan;
 
 /// Default box padding around the outermost nuclei (bohr).
 pub const DEFAULT_PADDING_BOHR: f64 = 5.0;
@@ -43,7 +43,7 @@ pub struct VolumeArgs {
     #[arg(long, value_name = "LENGTH")]
     pub padding: Option<f64>,
     /// Unit of --spacing and --padding
-    #[arg(long, value_enum, default_value_t = LengthUnit::Angstrom)]
+    #[arg(long, value_parser = super::values::length_unit(), default_value = "angstrom")]
     pub units: LengthUnit,
     /// Output cube file (lengths in bohr; a name ending in .gz is gzip-compressed)
     #[arg(long, value_name = "FILE")]
@@ -66,7 +66,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let mut plan = OutputPlan::new(&model.inputs);
     let slot = plan.add(&args.out)?;
     check_lengths(&args)?;
-    let set = crate::solve::orbitals_within(
+    let set = lobecast::solve::orbitals_within(
         &model.molecule,
         &model.method,
         args.memory.memory,

@@ -7,7 +7,7 @@ use crate::chem::{LengthUnit, Molecule};
 use crate::error::{Error, Result};
 
 /// A Cartesian axis, for `--up`.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Axis {
     X,
     Y,
@@ -21,6 +21,18 @@ impl Axis {
 }
 
 const NAMES: [&str; 3] = ["x", "y", "z"];
+
+impl std::str::FromStr for Axis {
+    type Err = String;
+    fn from_str(s: &str) -> std::result::Result<Self, String> {
+        match s.to_ascii_lowercase().as_str() {
+            "x" => Ok(Axis::X),
+            "y" => Ok(Axis::Y),
+            "z" => Ok(Axis::Z),
+            _ => Err(format!("unknown axis {s:?} (x, y or z)")),
+        }
+    }
+}
 
 #[derive(Debug, Clone, PartialEq)]
 pub enum PlaneSpec {

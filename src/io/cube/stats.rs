@@ -72,12 +72,23 @@ impl FieldStats {
 }
 
 /// What the enclosed fraction is a fraction of.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Measure {
     /// ∫|f| dV (the default for non-negative fields: densities)
     Abs,
     /// ∫f² dV (the default for signed fields: orbitals)
     Square,
+}
+
+impl std::str::FromStr for Measure {
+    type Err = String;
+    fn from_str(s: &str) -> std::result::Result<Self, String> {
+        match s.to_ascii_lowercase().as_str() {
+            "abs" => Ok(Measure::Abs),
+            "square" => Ok(Measure::Square),
+            _ => Err(format!("unknown measure {s:?} (abs or square)")),
+        }
+    }
 }
 
 impl Measure {

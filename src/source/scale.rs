@@ -2,7 +2,7 @@
 //! which the field vanishes (a node, values at rounding level) from one where the
 //! field is merely small.
 
-use super::source::{Sampler, Source};
+use super::{Sampler, Source};
 use crate::chem::LengthUnit;
 
 /// Points per edge of the coarse box for computed fields. Even, so that a box

@@ -8,7 +8,7 @@
 //! encoder and, at most, the encoded file). Work: rough floating-point operations,
 //! limited to `MAX_WORK` whatever the memory budget.
 
-use super::source::Source;
+use super::Source;
 use crate::field::Field;
 use crate::solve::estimate::primitive_count;
 

@@ -7,6 +7,9 @@
 //! cube files are interpolated trilinearly (`cube::Volume::value_at`) and give NaN,
 //! "no data", outside their box.
 
+pub mod budget;
+pub mod scale;
+
 use std::path::{Path, PathBuf};
 
 use crate::chem::elements::by_number;

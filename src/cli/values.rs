@@ -1,0 +1,28 @@
+//! Command-line values for library enums: the library parses its own names
+//! (`FromStr`); clap only learns which names exist, for help and completion, so no
+//! clap derive sits on a library type.
+
+use clap::builder::{PossibleValuesParser, TypedValueParser};
+
+use lobecast::chem::LengthUnit;
+use lobecast::grid::plane::Axis;
+use lobecast::io::cube::stats::Measure;
+
+fn choice<T>(names: &'static [&'static str]) -> impl TypedValueParser<Value = T>
+where
+    T: std::str::FromStr<Err = String> + Clone + Send + Sync + 'static,
+{
+    PossibleValuesParser::new(names).try_map(|s| s.parse::<T>())
+}
+
+pub fn length_unit() -> impl TypedValueParser<Value = LengthUnit> {
+    choice(&["angstrom", "bohr"])
+}
+
+pub fn axis() -> impl TypedValueParser<Value = Axis> {
+    choice(&["x", "y", "z"])
+}
+
+pub fn measure() -> impl TypedValueParser<Value = Measure> {
+    choice(&["abs", "square"])
+}
