@@ -89,7 +89,45 @@ pub struct Basis {
     pub shells: Vec<Shell>,
 }
 
+/// What kind of set a basis is, read once from its name where it was built; every
+/// caution about the basis follows from this one rule.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum BasisKind {
+    /// One 1s Slater function per atom.
+    Slater1s,
+    /// A named STO-nG set (sto-3g, sto-6g).
+    StoNg,
+    /// The valence Slater set of extended Hückel.
+    Valence,
+    /// Even-tempered or the user's own shells.
+    Extended,
+    /// Functions read from an orbital file.
+    FromFile,
+}
+
+impl BasisKind {
+    /// One function per occupied atomic shell: energies are upper bounds far from
+    /// the basis limit, and bonds come out too weak.
+    pub fn is_minimal(self) -> bool {
+        matches!(
+            self,
+            BasisKind::Slater1s | BasisKind::StoNg | BasisKind::Valence
+        )
+    }
+}
+
 impl Basis {
+    /// The kind of set, from the name its builder gave it.
+    pub fn kind(&self) -> BasisKind {
+        match self.name.as_str() {
+            "slater-1s" => BasisKind::Slater1s,
+            n if n.starts_with("sto-") => BasisKind::StoNg,
+            "extended-huckel valence" => BasisKind::Valence,
+            "orbital file" => BasisKind::FromFile,
+            _ => BasisKind::Extended,
+        }
+    }
+
     /// Number of basis functions.
     pub fn len(&self) -> usize {
         self.shells.iter().map(Shell::len).sum()

@@ -50,7 +50,7 @@ pub fn states(model: &Model, points: &[StatesPoint], eq: Option<(f64, f64)>) -> 
         .map(|a| a.charge())
         .fold(0.0, f64::max);
     let basis = model.basis().map_or("", |b| b.name.as_str());
-    let minimal = basis.starts_with("sto-");
+    let minimal = model.basis().is_some_and(|b| b.kind().is_minimal());
     let mut footnotes = vec![UNITS_NOTE.to_string()];
     if minimal {
         footnotes.push(MINIMAL_NOTE.into());

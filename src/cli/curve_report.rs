@@ -250,7 +250,7 @@ impl States<'_> {
             table += "\n";
             csv += "\n";
         }
-        let minimal = basis.starts_with("sto-") || basis == "slater-1s";
+        let minimal = self.model.basis().is_some_and(|b| b.kind().is_minimal());
         let json = json_text(&Json {
             format: "lobecast-curve",
             version: 1,

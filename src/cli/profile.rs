@@ -206,12 +206,7 @@ pub fn run(args: ProfileArgs) -> Result<()> {
                             .into(),
                     );
                 }
-                if super::slice::minimal_basis(&source) {
-                    f.push(
-                        "Minimal basis: shapes and signs are qualitative; energies are upper bounds."
-                            .into(),
-                    );
-                }
+                f.extend(source.caveat_footnotes());
                 f
             },
             width: size,

@@ -229,12 +229,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
         }
     });
     let mut footnotes = vec![format!("{}; {}", plane.description, source.provenance())];
-    if minimal_basis(&source) {
-        footnotes.push(
-            "Minimal basis: shapes and signs are qualitative; energies are upper bounds."
-                .to_string(),
-        );
-    }
+    footnotes.extend(source.caveat_footnotes());
     if fields
         .iter()
         .any(|f| matches!(f, Field::OrbitalDeformation(_)))
@@ -403,14 +398,6 @@ fn refuse_empty(r: &Rendered, fields: &[Field], fig: &Figure, largest: &[f64]) -
         .with_hint(format!("{why}; choose another plane, or an offset from it")));
     }
     Ok(())
-}
-
-/// Whether the source's notes carry the minimal-basis caution, which figures repeat.
-pub fn minimal_basis(source: &Source) -> bool {
-    source
-        .notes()
-        .iter()
-        .any(|n| n.starts_with("minimal basis"))
 }
 
 impl SliceArgs {

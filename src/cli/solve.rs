@@ -7,7 +7,7 @@ use clap::Args;
 use super::common::{XyzFlags, load_model_with, print_notes, print_out, say};
 use lobecast::chem::units::hartree_to_ev;
 use lobecast::error::Result;
-use lobecast::solve::{OrbitalSet, degenerate, orbitals_within};
+use lobecast::solve::{MethodKind, OrbitalSet, degenerate, orbitals_within};
 
 #[derive(Debug, Args)]
 pub struct SolveArgs {
@@ -53,7 +53,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
     } else {
         format!("{occupied:.4}")
     };
-    if set.reference.is_some() || set.method.starts_with("extended Hückel") {
+    if set.reference.is_some() || set.origin == MethodKind::ExtendedHuckel {
         say!(
             "lobecast solve: {} from {}, {}, {electrons} valence electron(s); orbital energies only (no total energy)",
             set.molecule.formula_with_charge(),
@@ -73,7 +73,7 @@ pub fn run(args: SolveArgs) -> Result<()> {
     if let Some(q) = set.mulliken_charges() {
         print_out(&charges(&set, &q))?;
     }
-    print_notes(&set.notes)?;
+    print_notes(&set.statements())?;
     if let Some(slot) = json {
         let mut out = plan.open()?;
         out.put(slot, lobecast::io::orbitals::to_json(&set).as_bytes())?;

@@ -158,7 +158,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     for d in &descriptions {
         say!("  {d}");
     }
-    print_notes(&set.notes)?;
+    print_notes(&set.statements())?;
     Ok(())
 }
 

@@ -10,6 +10,7 @@ use crate::basis::{Angular, Basis, GaussianShell, Shell, SlaterShell};
 use crate::chem::units::{BOHR_IN_ANGSTROM, HARTREE_IN_EV};
 use crate::chem::{Atom, Molecule, elements};
 use crate::error::{Error, Result};
+use crate::solve::MethodKind;
 use crate::solve::orbitals::{Orbital, OrbitalSet};
 
 pub const FORMAT: &str = "lobecast-orbitals";
@@ -274,7 +275,16 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     let plausible = inferred.abs() <= MAX_SHOWN_CHARGE;
     let mut molecule = Molecule::new(atoms, inferred as i32).map_err(|e| e.context(name))?;
     molecule.charge_known = whole && plausible;
-    let mut notes = doc.notes.clone();
+    // Our own caveats come back as data; other notes stay text.
+    let (caveats, mut notes): (Vec<_>, Vec<_>) = doc
+        .notes
+        .iter()
+        .partition(|n| crate::solve::Caveat::from_text(n).is_some());
+    let caveats: Vec<crate::solve::Caveat> = caveats
+        .into_iter()
+        .filter_map(|n| crate::solve::Caveat::from_text(n))
+        .collect();
+    let mut notes: Vec<String> = notes.drain(..).cloned().collect();
     if whole && !plausible {
         notes.push(format!(
             "the occupations hold {} electrons against a nuclear charge of {}; taking the file to hold part of the orbitals only, no charge is shown",
@@ -303,15 +313,24 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         notes.push("the orbitals were renumbered in increasing energy".into());
     }
     let method = doc.method.unwrap_or_else(|| format!("orbital file {name}"));
+    // The file's method text, read once here: lobecast's own extended-Hückel files
+    // say so, and their energies are meant in eV.
+    let origin = if method.starts_with("extended Hückel") {
+        MethodKind::ExtendedHuckel
+    } else {
+        MethodKind::File
+    };
     // 1e-6 of the unit the energies are meant in: eV for extended Hückel or a file
     // written in eV, hartree otherwise.
-    let in_ev = method.starts_with("extended Hückel") || doc.energy_unit == "ev";
+    let in_ev = origin == MethodKind::ExtendedHuckel || doc.energy_unit == "ev";
     let mut set = OrbitalSet {
         molecule,
         basis,
         overlap,
         orbitals,
+        origin,
         method,
+        caveats,
         notes,
         reference,
         degeneracy: crate::solve::degenerate::tolerance(in_ev),
@@ -548,7 +567,7 @@ pub fn to_json(set: &OrbitalSet) -> String {
                 coefficients: o.coefficients.clone(),
             })
             .collect(),
-        notes: set.notes.clone(),
+        notes: set.statements(),
         reference_occupations: set.reference.clone(),
     };
     serde_json::to_string_pretty(&doc).expect("orbital sets serialise") + "\n"

@@ -7,10 +7,11 @@
 
 use nalgebra::DMatrix;
 
+use super::MethodKind;
 use super::degenerate::{canonicalise, sharing_notes, tolerance};
 use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
 use super::huckel_params::{HuckelOptions, OffDiagonal, valence_basis};
-use super::orbitals::{Orbital, OrbitalSet, aufbau};
+use super::orbitals::{Caveat, Orbital, OrbitalSet, aufbau};
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
 use crate::integrals::slater_overlap_matrix;
@@ -75,7 +76,7 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
             coefficients: eigen.vectors.column(i).iter().copied().collect(),
         })
         .collect();
-    let mut notes = vec![CAUTION.to_string()];
+    let mut notes = Vec::new();
     if eigen.dropped > 0 {
         notes.push(format!(
             "{} near-linear-dependent combination(s) of the basis were dropped",
@@ -91,17 +92,19 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
         basis: vb.basis,
         overlap: Some(s),
         orbitals,
+        origin: MethodKind::ExtendedHuckel,
         method: format!(
             "extended Hückel (semi-empirical, qualitative), K = {}{form}",
             options.k
         ),
+        caveats: vec![Caveat::SemiEmpirical],
         notes,
         reference: Some(vb.reference),
         degeneracy: tol,
     };
     canonicalise(&mut set);
     let shared = sharing_notes(&set);
-    set.notes.splice(1..1, shared);
+    set.notes.splice(0..0, shared);
     Ok(set)
 }
 

@@ -13,4 +13,4 @@ pub mod one_electron;
 pub mod orbitals;
 
 pub use method::{Method, MethodKind, orbitals_for, orbitals_within};
-pub use orbitals::{Orbital, OrbitalSelector, OrbitalSet};
+pub use orbitals::{Caveat, Orbital, OrbitalSelector, OrbitalSet};

@@ -1,8 +1,9 @@
 //! The one-electron solver: exact within the basis for a system with one electron.
 
+use super::MethodKind;
 use super::degenerate::{canonicalise, sharing_notes, tolerance};
 use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
-use super::orbitals::{Orbital, OrbitalSet, aufbau};
+use super::orbitals::{Caveat, Orbital, OrbitalSet, aufbau};
 use crate::basis::Basis;
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
@@ -46,12 +47,12 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
             coefficients: eigen.vectors.column(i).iter().copied().collect(),
         })
         .collect();
-    let minimal = basis.name == "slater-1s" || basis.name.starts_with("sto-");
-    let mut notes = if minimal {
-        vec![MINIMAL_BASIS_CAVEAT.to_string()]
+    let caveats = if basis.kind().is_minimal() {
+        vec![Caveat::MinimalBasis]
     } else {
         Vec::new()
     };
+    let mut notes = Vec::new();
     if eigen.dropped > 0 {
         notes.push(format!(
             "{} near-linear-dependent combination(s) of the basis were dropped",
@@ -63,7 +64,9 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         basis: basis.clone(),
         overlap: Some(matrices.overlap),
         orbitals,
+        origin: MethodKind::OneElectron,
         method: format!("one-electron, {}", basis.name),
+        caveats,
         notes,
         reference: None,
         degeneracy: tol,

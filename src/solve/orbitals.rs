@@ -7,6 +7,44 @@ use crate::basis::Basis;
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
 
+/// A statement that must go with a method's numbers wherever they are shown
+/// (tables, figure footnotes, orbital files). Decided by the solver as data, turned
+/// into text only at output.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Caveat {
+    /// A minimal basis used for energies or bond strengths.
+    MinimalBasis,
+    /// A semi-empirical method (extended Hückel).
+    SemiEmpirical,
+}
+
+impl Caveat {
+    pub const ALL: [Caveat; 2] = [Caveat::MinimalBasis, Caveat::SemiEmpirical];
+
+    pub fn text(self) -> &'static str {
+        match self {
+            Caveat::MinimalBasis => super::one_electron::MINIMAL_BASIS_CAVEAT,
+            Caveat::SemiEmpirical => super::huckel::CAUTION,
+        }
+    }
+
+    /// The short form a figure's footnote carries, where the figure needs one (the
+    /// extended-Hückel caution already stands in every figure's method line).
+    pub fn figure_note(self) -> Option<&'static str> {
+        match self {
+            Caveat::MinimalBasis => {
+                Some("Minimal basis: shapes and signs are qualitative; energies are upper bounds.")
+            }
+            Caveat::SemiEmpirical => None,
+        }
+    }
+
+    /// The caveat a note of an orbital file states, if it is one of ours.
+    pub fn from_text(text: &str) -> Option<Caveat> {
+        Caveat::ALL.into_iter().find(|c| c.text() == text)
+    }
+}
+
 #[derive(Debug, Clone, PartialEq)]
 pub struct Orbital {
     /// Orbital energy in hartree.
@@ -28,10 +66,15 @@ pub struct OrbitalSet {
     pub overlap: Option<DMatrix<f64>>,
     /// Sorted by increasing energy.
     pub orbitals: Vec<Orbital>,
-    /// How the orbitals were obtained, e.g. "one-electron, slater-1s".
+    /// The method that made the orbitals (`File` for orbitals from elsewhere); it
+    /// decides the energy unit of titles (eV for extended Hückel).
+    pub origin: super::MethodKind,
+    /// How the orbitals were obtained, for display only: "one-electron, slater-1s".
     pub method: String,
-    /// Plain statements the user must see with the numbers: what the model may and
-    /// may not be used for, and anything the solver had to do (dropped functions).
+    /// What the numbers may and may not be used for.
+    pub caveats: Vec<Caveat>,
+    /// Other statements the user must see with the numbers: anything the solver had
+    /// to do (dropped functions), shared electrons, renumbering.
     pub notes: Vec<String>,
     /// Free-atom valence occupation of each basis function (the neutral, spherical
     /// atoms the deformation density is measured against), where the method has one.
@@ -42,6 +85,19 @@ pub struct OrbitalSet {
 }
 
 impl OrbitalSet {
+    /// Every statement to print with the numbers: the caveats' text, then the notes.
+    pub fn statements(&self) -> Vec<String> {
+        self.caveats
+            .iter()
+            .map(|c| c.text().to_string())
+            .chain(self.notes.iter().cloned())
+            .collect()
+    }
+
+    pub fn has_caveat(&self, c: Caveat) -> bool {
+        self.caveats.contains(&c)
+    }
+
     /// Mulliken gross populations of one orbital per basis function,
     /// q_μ = c_μ Σ_ν S_μν c_ν; they sum to cᵀSc (1 for a normalised orbital).
     pub fn gross_populations(&self, index: usize) -> Result<Vec<f64>> {

@@ -171,10 +171,24 @@ impl Source {
         }
     }
 
+    /// The figure footnotes the source's caveats ask for (none for a cube file,
+    /// which carries no method).
+    pub fn caveat_footnotes(&self) -> Vec<String> {
+        match self {
+            Source::Orbitals { set, .. } => set
+                .caveats
+                .iter()
+                .filter_map(|c| c.figure_note())
+                .map(str::to_string)
+                .collect(),
+            Source::Volume { .. } => Vec::new(),
+        }
+    }
+
     /// Statements that must go with the figure (the minimal-basis caution, …).
     pub fn notes(&self) -> Vec<String> {
         match self {
-            Source::Orbitals { set, .. } => set.notes.clone(),
+            Source::Orbitals { set, .. } => set.statements(),
             Source::Volume { .. } => Vec::new(),
         }
     }
@@ -356,7 +370,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
 
 /// Whether the orbitals come from extended Hückel, whose energies figures give in eV.
 pub fn is_extended_huckel(set: &OrbitalSet) -> bool {
-    set.method.starts_with("extended Hückel")
+    set.origin == crate::solve::MethodKind::ExtendedHuckel
 }
 
 /// Replaces a hyphen-minus with a true minus sign for figures.
