@@ -12,7 +12,7 @@ use lobecast::error::{Error, Result};
 use lobecast::field::{Field, FieldSampler};
 use lobecast::grid::{GridBox, Resolution};
 use lobecast::io::cube::sink::CubeSink;
-use lobecast::io::cube::{CubeAtom, CubeHeader, write_streaming};
+use lobecast::io::cube::write_streaming;
 use lobecast::output::OutputPlan;
 
 /// Default box padding around the outermost nuclei (bohr).
@@ -82,44 +82,8 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         (None, None) => Resolution::Spacing(DEFAULT_SPACING_BOHR),
     };
     let grid = GridBox::around(&set.molecule, padding, resolution)?;
-    let descriptions = fields
-        .iter()
-        .map(|f| f.describe(&set))
-        .collect::<Result<Vec<_>>>()?;
-    let header = CubeHeader {
-        title: format!(
-            "lobecast volume: {} from {}",
-            set.molecule.formula_with_charge(),
-            model.path.display()
-        ),
-        comment: format!(
-            "{}; {}; lobecast {}",
-            descriptions.join("; "),
-            set.method,
-            env!("CARGO_PKG_VERSION")
-        ),
-        atoms: set
-            .molecule
-            .atoms
-            .iter()
-            .map(|a| CubeAtom {
-                atomic_number: a.element.atomic_number,
-                charge: a.charge(),
-                position: a.position,
-            })
-            .collect(),
-        grid: grid.clone(),
-        orbital_numbers: if fields.len() > 1 {
-            Some(
-                fields
-                    .iter()
-                    .map(|f| f.orbital_number(&set))
-                    .collect::<Result<Vec<_>>>()?,
-            )
-        } else {
-            None
-        },
-    };
+    let source = model.path.display().to_string();
+    let header = lobecast::io::cube::header_for(&set, &fields, grid.clone(), &source)?;
     let bytes = header.predicted_bytes();
     if bytes > args.max_bytes {
         return Err(Error::input(format!(
@@ -155,8 +119,8 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         bytes as f64 / 1e6,
         started.elapsed().as_secs_f64()
     );
-    for d in &descriptions {
-        say!("  {d}");
+    for f in &fields {
+        say!("  {}", f.describe(&set)?);
     }
     print_notes(&set.statements())?;
     Ok(())

@@ -3,12 +3,14 @@
 
 pub mod arith;
 pub mod format;
+mod header;
 pub mod reader;
 pub mod sink;
 pub mod stats;
 pub mod volume;
 pub mod writer;
 
+pub use header::header_for;
 pub use reader::{CubeInfo, CubeReader};
 pub use volume::Volume;
 pub use writer::{CubeAtom, CubeHeader, write_streaming};
