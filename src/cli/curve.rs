@@ -172,6 +172,7 @@ pub fn run(args: CurveArgs) -> Result<()> {
             choice,
             points,
             eq,
+            buildup: buildups.as_deref(),
         }
         .into_document()
     } else {
@@ -187,12 +188,9 @@ pub fn run(args: CurveArgs) -> Result<()> {
             model: &model,
             points,
             eq,
+            buildup: buildups.as_deref(),
         }
         .into_document()
-    };
-    let doc = match &buildups {
-        Some(b) => report::with_buildup(doc, &rs, b),
-        None => doc,
     };
     print_out(&doc.table)?;
     say!("{}", doc.equilibrium_line);

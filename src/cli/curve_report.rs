@@ -3,6 +3,7 @@
 use serde::Serialize;
 
 use lobecast::chem::units::{bohr_to_angstrom, hartree_to_ev};
+use lobecast::field::buildup::Buildup;
 use lobecast::io::model::Model;
 use lobecast::solve::curve::{CurvePoint, Equilibrium, StatesPoint, ZetaChoice, separated_limit};
 use lobecast::solve::one_electron::MINIMAL_BASIS_CAVEAT;
@@ -54,8 +55,57 @@ impl EquilibriumJson {
     }
 }
 
+/// The JSON text, keys in alphabetical order at every level (through serde_json's
+/// sorted map), so a document reads the same with and without the build-up keys.
 fn json_text<P: Serialize>(doc: &Json<P>) -> String {
-    serde_json::to_string_pretty(doc).expect("curve documents serialise") + "\n"
+    let value = serde_json::to_value(doc).expect("curve documents serialise");
+    serde_json::to_string_pretty(&value).expect("JSON values serialise") + "\n"
+}
+
+/// The build-up numbers of one separation, as the JSON points carry them.
+#[derive(Serialize)]
+struct BuildupJson {
+    between_bonding: f64,
+    between_antibonding: f64,
+    midpoint_bonding: f64,
+    midpoint_antibonding: f64,
+}
+
+impl From<&Buildup> for BuildupJson {
+    fn from(x: &Buildup) -> Self {
+        BuildupJson {
+            between_bonding: x.between[0],
+            between_antibonding: x.between[1],
+            midpoint_bonding: x.midpoint[0],
+            midpoint_antibonding: x.midpoint[1],
+        }
+    }
+}
+
+/// The build-up columns of the table and the CSV: header, explanation, one row.
+const BUILDUP_CSV_HEADER: &str =
+    ",between_bonding,between_antibonding,midpoint_bonding,midpoint_antibonding";
+const BUILDUP_CSV_NOTE: &str = "# between_*: electrons gained (>0) or lost (<0) between the planes through the nuclei perpendicular to the bond, i.e. the slab integral of the orbital deformation density of orbital 1 (bonding) or 2 (antibonding); midpoint_*: that density at the bond midpoint, e/bohr^3\n";
+
+fn buildup_table_header() -> String {
+    format!(
+        " {:>11} {:>11} {:>11} {:>11}",
+        "gain+/e", "gain-/e", "mid+/bohr-3", "mid-/bohr-3"
+    )
+}
+
+fn buildup_table_cells(x: &Buildup) -> String {
+    format!(
+        " {:11.6} {:11.6} {:11.6} {:11.6}",
+        x.between[0], x.between[1], x.midpoint[0], x.midpoint[1]
+    )
+}
+
+fn buildup_csv_cells(x: &Buildup) -> String {
+    format!(
+        ",{:.10e},{:.10e},{:.10e},{:.10e}",
+        x.between[0], x.between[1], x.midpoint[0], x.midpoint[1]
+    )
 }
 
 fn equilibrium_line(eq: Option<(f64, f64, Option<f64>)>, limit: f64) -> String {
@@ -80,6 +130,8 @@ pub struct TwoCentre<'a> {
     pub choice: ZetaChoice,
     pub points: Vec<CurvePoint>,
     pub eq: Option<Equilibrium>,
+    /// Build-up numbers, one per point, when asked for.
+    pub buildup: Option<&'a [Buildup]>,
 }
 
 #[derive(Serialize)]
@@ -92,6 +144,8 @@ struct TwoCentrePoint {
     e_bonding: f64,
     e_antibonding: f64,
     zeta: f64,
+    #[serde(flatten)]
+    buildup: Option<BuildupJson>,
 }
 
 impl TwoCentre<'_> {
@@ -108,8 +162,9 @@ impl TwoCentre<'_> {
             self.z,
             self.points.len()
         );
+        let b = self.buildup;
         table += &format!(
-            "{:>9} {:>9} {:>10} {:>12} {:>12} {:>13} {:>13}{}\n",
+            "{:>9} {:>9} {:>10} {:>12} {:>12} {:>13} {:>13}{}{}\n",
             "R/bohr",
             "R/Å",
             "S",
@@ -121,7 +176,8 @@ impl TwoCentre<'_> {
                 format!(" {:>8}", "ζ")
             } else {
                 String::new()
-            }
+            },
+            b.map_or(String::new(), |_| buildup_table_header())
         );
         let mut csv = format!(
             "# lobecast {} energy curve: two identical nuclei of charge Z = {}, one electron, one normalised 1s Slater function per nucleus, zeta = {zeta_text}\n\
@@ -130,16 +186,18 @@ impl TwoCentre<'_> {
              # coulomb J = H_AA - E_atom; exchange K = H_AB - E_atom*S; H includes the nuclear repulsion Z^2/R\n\
              # e_bonding = E_atom + (J+K)/(1+S); e_antibonding = E_atom + (J-K)/(1-S); for zeta = Z: J = Z^2/R + <phiA|-Z/rB|phiA>, K = S*Z^2/R + <phiB|-Z/rB|phiA>\n\
              # caution: {MINIMAL_BASIS_CAVEAT}\n\
-             r_bohr,r_angstrom,overlap,coulomb,exchange,e_bonding,e_antibonding{}\n",
+             {}r_bohr,r_angstrom,overlap,coulomb,exchange,e_bonding,e_antibonding{}{}\n",
             env!("CARGO_PKG_VERSION"),
             self.z,
-            if opt { ",zeta" } else { "" }
+            b.map_or("", |_| BUILDUP_CSV_NOTE),
+            if opt { ",zeta" } else { "" },
+            b.map_or("", |_| BUILDUP_CSV_HEADER)
         );
-        for p in &self.points {
+        for (i, p) in self.points.iter().enumerate() {
             let m = &p.model;
             let zcol = |w: String| if opt { w } else { String::new() };
             table += &format!(
-                "{:9.4} {:9.4} {:10.6} {:12.7} {:12.7} {:13.8} {:13.8}{}\n",
+                "{:9.4} {:9.4} {:10.6} {:12.7} {:12.7} {:13.8} {:13.8}{}{}\n",
                 p.r,
                 bohr_to_angstrom(p.r),
                 m.s,
@@ -147,10 +205,11 @@ impl TwoCentre<'_> {
                 m.exchange,
                 m.e_bonding,
                 m.e_antibonding,
-                zcol(format!(" {:8.5}", p.zeta))
+                zcol(format!(" {:8.5}", p.zeta)),
+                b.map_or(String::new(), |b| buildup_table_cells(&b[i]))
             );
             csv += &format!(
-                "{},{},{:.12e},{:.12e},{:.12e},{:.12e},{:.12e}{}\n",
+                "{},{},{:.12e},{:.12e},{:.12e},{:.12e},{:.12e}{}{}\n",
                 p.r,
                 bohr_to_angstrom(p.r),
                 m.s,
@@ -158,7 +217,8 @@ impl TwoCentre<'_> {
                 m.exchange,
                 m.e_bonding,
                 m.e_antibonding,
-                zcol(format!(",{:.10}", p.zeta))
+                zcol(format!(",{:.10}", p.zeta)),
+                b.map_or(String::new(), |b| buildup_csv_cells(&b[i]))
             );
         }
         let json = json_text(&Json {
@@ -175,7 +235,8 @@ impl TwoCentre<'_> {
             points: self
                 .points
                 .iter()
-                .map(|p| TwoCentrePoint {
+                .enumerate()
+                .map(|(i, p)| TwoCentrePoint {
                     r_bohr: p.r,
                     r_angstrom: bohr_to_angstrom(p.r),
                     overlap: p.model.s,
@@ -184,6 +245,7 @@ impl TwoCentre<'_> {
                     e_bonding: p.model.e_bonding,
                     e_antibonding: p.model.e_antibonding,
                     zeta: p.zeta,
+                    buildup: b.map(|b| BuildupJson::from(&b[i])),
                 })
                 .collect(),
             notes: vec![MINIMAL_BASIS_CAVEAT.to_string()],
@@ -204,6 +266,8 @@ pub struct States<'a> {
     pub model: &'a Model,
     pub points: Vec<StatesPoint>,
     pub eq: Option<(f64, f64)>,
+    /// Build-up numbers, one per point, when asked for.
+    pub buildup: Option<&'a [Buildup]>,
 }
 
 #[derive(Serialize)]
@@ -211,6 +275,8 @@ struct StatesJsonPoint {
     r_bohr: f64,
     r_angstrom: f64,
     energies_hartree: Vec<f64>,
+    #[serde(flatten)]
+    buildup: Option<BuildupJson>,
 }
 
 impl States<'_> {
@@ -220,6 +286,7 @@ impl States<'_> {
         // The electron ends on the nucleus that binds it more: −Z_max²/2.
         let limit = separated_limit(zmax);
         let k = self.points.first().map_or(0, |p| p.energies.len());
+        let b = self.buildup;
         let basis = self.model.basis().map_or(String::new(), |b| b.name.clone());
         let mut table = format!(
             "lobecast curve: {}, one electron, basis {basis}; the {k} lowest states at {} separations\n",
@@ -230,22 +297,31 @@ impl States<'_> {
         let mut csv = format!(
             "# lobecast {} energy curve: {}, one electron, basis {basis}; total energies (nuclear repulsion included) of the {k} lowest states\n\
              # units: r_bohr in bohr, r_angstrom in angstrom, e_N in hartree; e_1 is the lowest\n\
-             r_bohr,r_angstrom",
+             {}r_bohr,r_angstrom",
             env!("CARGO_PKG_VERSION"),
-            m.formula_with_charge()
+            m.formula_with_charge(),
+            b.map_or("", |_| BUILDUP_CSV_NOTE)
         );
         for i in 1..=k {
             table += &format!(" {:>14}", format!("E{i}/hartree"));
             csv += &format!(",e_{i}");
         }
+        if b.is_some() {
+            table += &buildup_table_header();
+            csv += BUILDUP_CSV_HEADER;
+        }
         table += "\n";
         csv += "\n";
-        for p in &self.points {
+        for (i, p) in self.points.iter().enumerate() {
             table += &format!("{:9.4} {:9.4}", p.r, bohr_to_angstrom(p.r));
             csv += &format!("{},{}", p.r, bohr_to_angstrom(p.r));
             for e in &p.energies {
                 table += &format!(" {e:14.8}");
                 csv += &format!(",{e:.12e}");
+            }
+            if let Some(b) = b {
+                table += &buildup_table_cells(&b[i]);
+                csv += &buildup_csv_cells(&b[i]);
             }
             table += "\n";
             csv += "\n";
@@ -265,10 +341,12 @@ impl States<'_> {
             points: self
                 .points
                 .iter()
-                .map(|p| StatesJsonPoint {
+                .enumerate()
+                .map(|(i, p)| StatesJsonPoint {
                     r_bohr: p.r,
                     r_angstrom: bohr_to_angstrom(p.r),
                     energies_hartree: p.energies.clone(),
+                    buildup: b.map(|b| BuildupJson::from(&b[i])),
                 })
                 .collect(),
             notes: if minimal {
@@ -285,66 +363,4 @@ impl States<'_> {
             minimal_basis: minimal,
         }
     }
-}
-
-/// Appends the build-up columns to the table, the CSV and the JSON points.
-pub fn with_buildup(
-    mut doc: Document,
-    rs: &[f64],
-    b: &[lobecast::field::buildup::Buildup],
-) -> Document {
-    let mut table = String::new();
-    for (i, line) in doc.table.lines().enumerate() {
-        table += line;
-        match i {
-            0 => {}
-            1 => {
-                table += &format!(
-                    " {:>11} {:>11} {:>11} {:>11}",
-                    "gain+/e", "gain-/e", "mid+/bohr-3", "mid-/bohr-3"
-                )
-            }
-            _ => {
-                let x = &b[i - 2];
-                table += &format!(
-                    " {:11.6} {:11.6} {:11.6} {:11.6}",
-                    x.between[0], x.between[1], x.midpoint[0], x.midpoint[1]
-                );
-            }
-        }
-        table += "\n";
-    }
-    let mut csv = String::new();
-    let mut row = 0;
-    for line in doc.csv.lines() {
-        csv += line;
-        if line.starts_with("r_bohr") {
-            csv += ",between_bonding,between_antibonding,midpoint_bonding,midpoint_antibonding";
-        } else if !line.starts_with('#') {
-            let x = &b[row];
-            csv += &format!(
-                ",{:.10e},{:.10e},{:.10e},{:.10e}",
-                x.between[0], x.between[1], x.midpoint[0], x.midpoint[1]
-            );
-            row += 1;
-        } else if row == 0 && line.starts_with("# caution") {
-            csv += "\n# between_*: electrons gained (>0) or lost (<0) between the planes through the nuclei perpendicular to the bond, i.e. the slab integral of the orbital deformation density of orbital 1 (bonding) or 2 (antibonding); midpoint_*: that density at the bond midpoint, e/bohr^3";
-        }
-        csv += "\n";
-    }
-    if let Ok(mut json) = serde_json::from_str::<serde_json::Value>(&doc.json) {
-        if let Some(points) = json.get_mut("points").and_then(|p| p.as_array_mut()) {
-            for (p, x) in points.iter_mut().zip(b) {
-                p["between_bonding"] = x.between[0].into();
-                p["between_antibonding"] = x.between[1].into();
-                p["midpoint_bonding"] = x.midpoint[0].into();
-                p["midpoint_antibonding"] = x.midpoint[1].into();
-            }
-        }
-        doc.json = serde_json::to_string_pretty(&json).expect("JSON values serialise") + "\n";
-    }
-    debug_assert_eq!(rs.len(), b.len());
-    doc.table = table;
-    doc.csv = csv;
-    doc
 }
