@@ -129,7 +129,7 @@ fn separable_evaluation_matches_direct() {
 
 #[test]
 fn pure_and_cartesian_p_span_the_same_functions() {
-    // DESIGN.md: l = 1, m = −1, 0, +1 ↔ y, z, x; both kinds are normalised, so the
+    // README conventions: l = 1, m = −1, 0, +1 ↔ y, z, x; both kinds are normalised, so the
     // pure p functions equal the Cartesian ones in that order.
     let pure = GaussianShell::full(0, [0.0; 3], 1, vec![(0.8, 1.0)], true).unwrap();
     let cart = GaussianShell::full(0, [0.0; 3], 1, vec![(0.8, 1.0)], false).unwrap();

@@ -1,6 +1,6 @@
 //! Angular parts: Cartesian components and real solid harmonics up to l = 3.
 //!
-//! Real solid harmonics follow DESIGN.md: no Condon–Shortley phase, m < 0 sine-type,
+//! Real solid harmonics (README, "Units and conventions"): no Condon–Shortley phase, m < 0 sine-type,
 //! m > 0 cosine-type; l = 1: m = −1, 0, +1 ↔ y, z, x; l = 2: m = −2…+2 ↔ xy, yz,
 //! 3z²−r², xz, x²−y². Each is scaled so that Y = R/r^l has unit norm on the sphere.
 //! The polynomials are the standard table of real spherical harmonics (from memory);
@@ -188,7 +188,7 @@ mod tests {
 
     #[test]
     fn design_order_of_p_and_d() {
-        // DESIGN.md: l = 1, m = −1, 0, +1 ↔ y, z, x; l = 2, m = −2 ↔ xy, m = 2 ↔ x²−y².
+        // README conventions: l = 1, m = −1, 0, +1 ↔ y, z, x; l = 2, m = −2 ↔ xy, m = 2 ↔ x²−y².
         assert_eq!(solid_harmonic(1, -1).unwrap()[0].1, [0, 1, 0]);
         assert_eq!(solid_harmonic(1, 1).unwrap()[0].1, [1, 0, 0]);
         assert_eq!(solid_harmonic(2, -2).unwrap()[0].1, [1, 1, 0]);

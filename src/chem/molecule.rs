@@ -166,7 +166,7 @@ impl Molecule {
 }
 
 pub fn distance(a: [f64; 3], b: [f64; 3]) -> f64 {
-    ((a[0] - b[0]).powi(2) + (a[1] - b[1]).powi(2) + (a[2] - b[2]).powi(2)).sqrt()
+    (nalgebra::Vector3::from(a) - nalgebra::Vector3::from(b)).norm()
 }
 
 /// The first pair of centres (i < j, ordered by j then i) closer than `threshold`

@@ -57,7 +57,7 @@ fn symbol(z: u32) -> String {
 }
 
 fn norm(v: [f64; 3]) -> f64 {
-    v.iter().map(|x| x * x).sum::<f64>().sqrt()
+    nalgebra::Vector3::from(v).norm()
 }
 
 /// The three box edges (n − 1)·aᵢ.

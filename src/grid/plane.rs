@@ -2,6 +2,8 @@
 //! `atoms:I,J,K` (through three atoms) and `atoms:I,J` with an up direction (the
 //! plane holding the bond and that direction), and the pixel grid on a window of one.
 
+use nalgebra::Vector3;
+
 use crate::chem::units::bohr_to_angstrom;
 use crate::chem::{LengthUnit, Molecule};
 use crate::error::{Error, Result};
@@ -158,20 +160,25 @@ impl PlaneSpec {
             .with_hint("leave out --up, or use atoms:I,J with --up x|y|z")),
             PlaneSpec::ThreeAtoms([i, j, k]) => {
                 let (a, b, c) = (atom(i)?, atom(j)?, atom(k)?);
-                let u = normalise(sub(b, a)).ok_or_else(|| same(i, j))?;
-                let v = normalise(reject(sub(c, a), u)).ok_or_else(|| {
-                    Error::input(format!(
-                        "atoms {}, {} and {} lie on one line, so they fix no plane",
-                        i + 1,
-                        j + 1,
-                        k + 1
-                    ))
-                    .with_hint("use atoms:I,J with --up x|y|z for a plane through a bond")
-                })?;
+                let u = (v3(b) - v3(a))
+                    .try_normalize(MIN_LENGTH)
+                    .ok_or_else(|| same(i, j))?;
+                let w = v3(c) - v3(a);
+                let v = (w - u * w.dot(&u))
+                    .try_normalize(MIN_LENGTH)
+                    .ok_or_else(|| {
+                        Error::input(format!(
+                            "atoms {}, {} and {} lie on one line, so they fix no plane",
+                            i + 1,
+                            j + 1,
+                            k + 1
+                        ))
+                        .with_hint("use atoms:I,J with --up x|y|z for a plane through a bond")
+                    })?;
                 Ok(Plane {
                     origin: centroid(&[a, b, c]),
-                    u,
-                    v,
+                    u: u.into(),
+                    v: v.into(),
                     u_label: format!("u (atom {} → {})", i + 1, j + 1),
                     v_label: format!("v (towards atom {})", k + 1),
                     description: format!(
@@ -184,27 +191,32 @@ impl PlaneSpec {
             }
             PlaneSpec::Bond([i, j]) => {
                 let (a, b) = (atom(i)?, atom(j)?);
-                let u = normalise(sub(b, a)).ok_or_else(|| same(i, j))?;
+                let u = (v3(b) - v3(a))
+                    .try_normalize(MIN_LENGTH)
+                    .ok_or_else(|| same(i, j))?;
                 let up = up.unwrap_or_else(|| {
                     *[Axis::Z, Axis::Y, Axis::X]
                         .iter()
                         .min_by(|p, q| u[p.index()].abs().total_cmp(&u[q.index()].abs()))
                         .expect("three axes")
                 });
-                let v = normalise(reject(unit_vector(up.index()), u)).ok_or_else(|| {
-                    Error::input(format!(
-                        "the bond {}–{} runs along {}, so --up {} fixes no plane",
-                        i + 1,
-                        j + 1,
-                        NAMES[up.index()],
-                        NAMES[up.index()]
-                    ))
-                    .with_hint("choose another --up axis")
-                })?;
+                let e = Vector3::ith(up.index(), 1.0);
+                let v = (e - u * e.dot(&u))
+                    .try_normalize(MIN_LENGTH)
+                    .ok_or_else(|| {
+                        Error::input(format!(
+                            "the bond {}–{} runs along {}, so --up {} fixes no plane",
+                            i + 1,
+                            j + 1,
+                            NAMES[up.index()],
+                            NAMES[up.index()]
+                        ))
+                        .with_hint("choose another --up axis")
+                    })?;
                 Ok(Plane {
                     origin: centroid(&[a, b]),
-                    u,
-                    v,
+                    u: u.into(),
+                    v: v.into(),
                     u_label: format!("u (atom {} → {})", i + 1, j + 1),
                     v_label: format!("v (towards +{})", NAMES[up.index()]),
                     description: format!(
@@ -243,9 +255,9 @@ impl Plane {
 
     /// In-plane coordinates of a point and its signed distance from the plane.
     pub fn project(&self, p: [f64; 3]) -> (f64, f64, f64) {
-        let r = sub(p, self.origin);
-        let n = cross(self.u, self.v);
-        (dot(r, self.u), dot(r, self.v), dot(r, n))
+        let r = v3(p) - v3(self.origin);
+        let (u, v) = (v3(self.u), v3(self.v));
+        (r.dot(&u), r.dot(&v), r.dot(&u.cross(&v)))
     }
 
     /// The window around the projected nuclei with `padding` (bohr) on every side,
@@ -362,33 +374,13 @@ fn unit_vector(d: usize) -> [f64; 3] {
     v
 }
 
-fn sub(a: [f64; 3], b: [f64; 3]) -> [f64; 3] {
-    std::array::from_fn(|d| a[d] - b[d])
+/// Positions are plain arrays between rooms; the vector algebra is nalgebra's.
+fn v3(a: [f64; 3]) -> Vector3<f64> {
+    Vector3::from(a)
 }
 
-fn dot(a: [f64; 3], b: [f64; 3]) -> f64 {
-    a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
-}
-
-fn cross(a: [f64; 3], b: [f64; 3]) -> [f64; 3] {
-    [
-        a[1] * b[2] - a[2] * b[1],
-        a[2] * b[0] - a[0] * b[2],
-        a[0] * b[1] - a[1] * b[0],
-    ]
-}
-
-/// The part of `a` perpendicular to the unit vector `u`.
-fn reject(a: [f64; 3], u: [f64; 3]) -> [f64; 3] {
-    let k = dot(a, u);
-    std::array::from_fn(|d| a[d] - k * u[d])
-}
-
-/// `a` scaled to length 1, or `None` when it is (nearly) zero.
-fn normalise(a: [f64; 3]) -> Option<[f64; 3]> {
-    let n = dot(a, a).sqrt();
-    (n > 1e-6).then(|| std::array::from_fn(|d| a[d] / n))
-}
+/// Shorter directions (bohr) fix no plane: coincident or collinear atoms.
+const MIN_LENGTH: f64 = 1e-6;
 
 fn centroid(points: &[[f64; 3]]) -> [f64; 3] {
     std::array::from_fn(|d| points.iter().map(|p| p[d]).sum::<f64>() / points.len() as f64)
@@ -438,7 +430,7 @@ mod tests {
             );
         }
         // The three atoms lie in y = 0, so the normal is ±y (geometry, common practice).
-        assert!((cross(p.u, p.v)[1].abs() - 1.0).abs() < 1e-12);
+        assert!((v3(p.u).cross(&v3(p.v))[1].abs() - 1.0).abs() < 1e-12);
         let bond = PlaneSpec::Bond([1, 2]).resolve(&m, Some(Axis::Z)).unwrap();
         assert!((bond.v[2] - 1.0).abs() < 1e-12);
         assert!(PlaneSpec::Bond([1, 2]).resolve(&m, Some(Axis::X)).is_err());

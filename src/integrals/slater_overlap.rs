@@ -105,7 +105,7 @@ fn p_direction(m: i32) -> [f64; 3] {
 }
 
 fn dot(a: [f64; 3], b: [f64; 3]) -> f64 {
-    a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
+    nalgebra::Vector3::from(a).dot(&nalgebra::Vector3::from(b))
 }
 
 /// Overlap block of two Slater shells (functions of a × functions of b, row-major).

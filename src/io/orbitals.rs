@@ -1,4 +1,4 @@
-//! The orbital file (JSON, version 1; schema in DESIGN.md and the README): the
+//! The orbital file (JSON, version 1; schema in the README, "The orbital file"): the
 //! neutral way to bring orbitals in from another program and take them out. Reading
 //! is strict: every error names the field at fault.
 

@@ -400,7 +400,12 @@ pub fn render(
             levels_for(&style.contours, &mapping, panel.signed)
         };
         if !blank[i] {
-            draw_contours(&mut c, vals, nx, ny, (mx, my), &levels, style);
+            let grid = Grid {
+                values: vals,
+                nx,
+                ny,
+            };
+            draw_contours(&mut c, &grid, (mx, my), &levels, style);
         }
         if style.nuclei {
             nuclei::draw(&mut c, &grid, &fig.nuclei, (mx, my), style.numbers);
@@ -610,17 +615,8 @@ pub fn levels_for(contours: &Contours, mapping: &Mapping, signed: bool) -> Vec<f
     }
 }
 
-#[allow(clippy::too_many_arguments)]
-fn draw_contours(
-    c: &mut Canvas,
-    values: &[f64],
-    nx: usize,
-    ny: usize,
-    (mx, my): (f32, f32),
-    levels: &[f64],
-    style: &Style,
-) {
-    let grid = Grid { values, nx, ny };
+/// Contour lines of `grid` at `levels`, the map's top-left corner at (mx, my).
+fn draw_contours(c: &mut Canvas, grid: &Grid, (mx, my): (f32, f32), levels: &[f64], style: &Style) {
     let lw = 1.3;
     let dash = [6.0, 4.0];
     let mut all: Vec<(f64, bool)> = levels.iter().map(|l| (*l, false)).collect();
@@ -628,7 +624,7 @@ fn draw_contours(
         all.push((0.0, true));
     }
     for (level, zero) in all {
-        for line in contour::trace(&grid, level) {
+        for line in contour::trace(grid, level) {
             let pts: Vec<(f32, f32)> = line
                 .iter()
                 .map(|(x, y)| (mx + *x as f32 + 0.5, my + *y as f32 + 0.5))
