@@ -4,13 +4,16 @@
 //! most one `hint:` after it), no panic, no file left behind and every input unchanged.
 //! The refusal rules are the hardening issue's (common practice for command-line tools).
 
+mod common;
+
 use std::collections::BTreeMap;
 use std::fs;
 use std::path::Path;
 use std::process::{Command, Stdio};
 use std::time::{Duration, Instant};
 
-const BIN: &str = env!("CARGO_BIN_EXE_lobecast");
+use common::BIN;
+
 const TIME_LIMIT: Duration = Duration::from_secs(20);
 /// Address space for one case, in KiB for `ulimit -v`.
 const MEMORY_KIB: u64 = 3 * 1024 * 1024;

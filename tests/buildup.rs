@@ -2,8 +2,9 @@
 //! antibonding orbitals gather between the nuclei, and the deformation density at the
 //! bond midpoint, against closed forms and an independent integration.
 
+mod common;
+
 use std::f64::consts::PI;
-use std::path::Path;
 
 use lobecast::field::buildup::{Buildup, buildup};
 use lobecast::integrals::two_centre::two_centre_1s;
@@ -16,13 +17,7 @@ fn model_at(r: f64, zeta: f64) -> Buildup {
         -0.5 * r,
         0.5 * r
     );
-    buildup(
-        &lobecast::io::model::parse(&text, Path::new("t.toml"))
-            .unwrap()
-            .solve()
-            .unwrap(),
-    )
-    .unwrap()
+    buildup(&common::solve_model(&text)).unwrap()
 }
 
 #[test]

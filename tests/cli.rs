@@ -2,50 +2,11 @@
 //! status 2, never a panic and never a partial or overwritten file; good input gives
 //! a cube file in the standard layout whose size the writer predicted exactly.
 
+mod common;
+
 use std::fs;
-use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
 
-const BIN: &str = env!("CARGO_BIN_EXE_lobecast");
-const H2: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-    atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
-    [basis]\nset = \"slater-1s\"\n";
-
-fn run(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN)
-        .current_dir(dir)
-        .args(args)
-        .output()
-        .expect("the binary runs")
-}
-
-fn model(dir: &Path, name: &str, text: &str) -> PathBuf {
-    let p = dir.join(name);
-    fs::write(&p, text).unwrap();
-    p
-}
-
-/// Asserts exit status 2, one `error:` line (plus at most a `hint:` line) that
-/// contains `needle`, and that the folder holds only `keep` afterwards.
-fn assert_input_error(dir: &Path, out: &Output, needle: &str, keep: &[&str]) {
-    let err = String::from_utf8_lossy(&out.stderr);
-    assert_eq!(out.status.code(), Some(2), "stderr: {err}");
-    let lines: Vec<&str> = err.lines().collect();
-    assert!(lines[0].starts_with("error: "), "{err}");
-    assert!(
-        lines.len() == 1 || (lines.len() == 2 && lines[1].starts_with("hint: ")),
-        "{err}"
-    );
-    assert!(err.contains(needle), "expected {needle:?} in {err}");
-    let mut names: Vec<String> = fs::read_dir(dir)
-        .unwrap()
-        .map(|e| e.unwrap().file_name().into_string().unwrap())
-        .collect();
-    names.sort();
-    let mut keep: Vec<String> = keep.iter().map(|s| s.to_string()).collect();
-    keep.sort();
-    assert_eq!(names, keep, "no partial output may remain");
-}
+use common::{H2, assert_input_error, run, write_file};
 
 #[test]
 fn bad_models_are_refused_with_the_reason() {
@@ -88,7 +49,7 @@ fn bad_models_are_refused_with_the_reason() {
     ];
     let mut keep: Vec<&str> = Vec::new();
     for (name, text, cmd, needle) in cases {
-        model(d.path(), name, text);
+        write_file(d.path(), name, text);
         keep.push(name);
         let mut args = cmd.to_vec();
         args.push(name);
@@ -100,8 +61,8 @@ fn bad_models_are_refused_with_the_reason() {
 #[test]
 fn bad_flags_are_refused_before_anything_is_written() {
     let d = tempfile::tempdir().unwrap();
-    model(d.path(), "h2.toml", H2);
-    model(
+    write_file(d.path(), "h2.toml", H2);
+    write_file(
         d.path(),
         "h3.toml",
         &H2.replace(
@@ -218,7 +179,7 @@ fn bad_flags_are_refused_before_anything_is_written() {
 #[test]
 fn an_existing_output_is_replaced_only_on_success() {
     let d = tempfile::tempdir().unwrap();
-    model(d.path(), "h2.toml", H2);
+    write_file(d.path(), "h2.toml", H2);
     fs::write(d.path().join("v.cube"), "old").unwrap();
     let out = run(
         d.path(),
@@ -260,7 +221,7 @@ fn an_existing_output_is_replaced_only_on_success() {
 #[test]
 fn multi_field_cube_layout() {
     let d = tempfile::tempdir().unwrap();
-    model(d.path(), "h2.toml", H2);
+    write_file(d.path(), "h2.toml", H2);
     let out = run(
         d.path(),
         &[
@@ -338,10 +299,10 @@ fn multi_field_cube_layout() {
 fn xyz_with_extended_huckel() {
     let d = tempfile::tempdir().unwrap();
     let water = "3\nwater\nO 0 0 0\nH 0.757 0 0.586\nH -0.757 0 0.586\n";
-    model(d.path(), "w.xyz", water);
-    model(d.path(), "bad.xyz", "2\n\nO 0 0 0\nQq 0 0 1\n");
-    model(d.path(), "ne.xyz", "2\n\nNe 0 0 0\nH 0 0 1\n");
-    model(d.path(), "m.toml", H2);
+    write_file(d.path(), "w.xyz", water);
+    write_file(d.path(), "bad.xyz", "2\n\nO 0 0 0\nQq 0 0 1\n");
+    write_file(d.path(), "ne.xyz", "2\n\nNe 0 0 0\nH 0 0 1\n");
+    write_file(d.path(), "m.toml", H2);
     let keep = ["bad.xyz", "m.toml", "ne.xyz", "w.xyz"];
     let eht = ["--method", "extended-huckel"];
     let cases: &[(&[&str], &str)] = &[

@@ -3,32 +3,12 @@
 //! to zero, gzip output reads the same, and bad input gives one `error:` line, exit
 //! status 2 and no output file.
 
+mod common;
+
 use std::fs;
 use std::path::Path;
-use std::process::{Command, Output};
 
-const BIN: &str = env!("CARGO_BIN_EXE_lobecast");
-const H2: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-    atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
-    [basis]\nset = \"slater-1s\"\n";
-
-fn run(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN)
-        .current_dir(dir)
-        .args(args)
-        .output()
-        .expect("the binary runs")
-}
-
-fn ok(dir: &Path, args: &[&str]) -> String {
-    let out = run(dir, args);
-    assert!(
-        out.status.success(),
-        "{args:?}: {}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    String::from_utf8(out.stdout).unwrap()
-}
+use common::{H2, assert_input_error, ok, run};
 
 fn inspect_json(dir: &Path, file: &str) -> serde_json::Value {
     serde_json::from_str(&ok(dir, &["inspect", file, "--json"])).unwrap()
@@ -36,28 +16,6 @@ fn inspect_json(dir: &Path, file: &str) -> serde_json::Value {
 
 fn field(v: &serde_json::Value, key: &str) -> f64 {
     v["fields"][0][key].as_f64().unwrap()
-}
-
-/// Exit status 2, one `error:` line (plus at most a `hint:` line) containing
-/// `needle`, and nothing but `keep` left in the folder.
-fn assert_input_error(dir: &Path, out: &Output, needle: &str, keep: &[&str]) {
-    let err = String::from_utf8_lossy(&out.stderr);
-    assert_eq!(out.status.code(), Some(2), "stderr: {err}");
-    let lines: Vec<&str> = err.lines().collect();
-    assert!(lines[0].starts_with("error: "), "{err}");
-    assert!(
-        lines.len() == 1 || (lines.len() == 2 && lines[1].starts_with("hint: ")),
-        "{err}"
-    );
-    assert!(err.contains(needle), "expected {needle:?} in {err}");
-    let mut names: Vec<String> = fs::read_dir(dir)
-        .unwrap()
-        .map(|e| e.unwrap().file_name().into_string().unwrap())
-        .collect();
-    names.sort();
-    let mut keep: Vec<String> = keep.iter().map(|s| s.to_string()).collect();
-    keep.sort();
-    assert_eq!(names, keep, "no partial output may remain");
 }
 
 fn setup() -> tempfile::TempDir {

@@ -3,10 +3,11 @@
 //! layout, within the layout's rounding; `combine` of density tails writes a file that
 //! reads back; the Fortran three-digit exponent form is read.
 
+mod common;
+
 use std::fs;
 use std::io::Cursor;
 use std::path::Path;
-use std::process::{Command, Output};
 
 use lobecast::grid::GridBox;
 use lobecast::io::cube::format::push_e13;
@@ -14,7 +15,7 @@ use lobecast::io::cube::writer::{PER_LINE, format_slab};
 use lobecast::io::cube::{CubeHeader, CubeReader, Volume};
 use proptest::prelude::*;
 
-const BIN: &str = env!("CARGO_BIN_EXE_lobecast");
+use common::ok;
 
 /// The rounding of `%13.5E`: half a unit in the fifth decimal of a mantissa in
 /// [1, 10), so at most 5e-6 relative (the C standard's definition of the E
@@ -152,24 +153,6 @@ fn fortran_exponent_form_is_read() {
     assert_eq!(back[2], 0.25);
 }
 
-fn run(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN)
-        .current_dir(dir)
-        .args(args)
-        .output()
-        .expect("the binary runs")
-}
-
-fn ok(dir: &Path, args: &[&str]) -> String {
-    let out = run(dir, args);
-    assert!(
-        out.status.success(),
-        "{args:?}: {}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    String::from_utf8(out.stdout).unwrap()
-}
-
 /// Every value line of a cube file has whole 13-column fields beginning with a space.
 fn assert_file_layout(path: &Path, header_lines: usize) {
     let text = fs::read_to_string(path).unwrap();
@@ -215,7 +198,7 @@ fn combine_of_density_tails_reads_back() {
 fn combine_of_a_computed_density_reads_back() {
     let d = tempfile::tempdir().unwrap();
     let p = d.path();
-    let model = Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/h2-cation-sto3g.toml");
+    let model = common::example("h2-cation-sto3g.toml");
     fs::copy(model, p.join("sto3g.toml")).unwrap();
     ok(
         p,

@@ -3,41 +3,21 @@
 //! and the rotation leaves energies, occupations, orthonormality and the density as
 //! they were.
 
-use std::process::Command;
+mod common;
 
 use lobecast::basis::BasisSpec;
-use lobecast::chem::{LengthUnit, Molecule};
-use lobecast::io::xyz::parse_xyz;
 use lobecast::solve::OrbitalSet;
 use lobecast::solve::degenerate::{canonicalise, sets};
 use lobecast::solve::huckel::solve;
 use lobecast::solve::huckel_params::HuckelOptions;
 
-const BIN: &str = env!("CARGO_BIN_EXE_lobecast");
+use common::{benzene, molecule};
+
 const CO2: &str = "3\nCO2\nC 0 0 0\nO 0 0 1.16\nO 0 0 -1.16\n";
 const O2: &str = "2\nO2\nO 0 0 0\nO 0 0 1.21\n";
 
-fn molecule(xyz: &str, charge: i32) -> Molecule {
-    let f = parse_xyz(xyz, "t.xyz", LengthUnit::Angstrom).unwrap();
-    Molecule::new(f.atoms, charge).unwrap()
-}
-
 fn eht(xyz: &str) -> OrbitalSet {
     solve(&molecule(xyz, 0), &HuckelOptions::default()).unwrap()
-}
-
-/// Benzene in the xy plane with C1 on the x axis, D6h, r(CC) = 1.3915 Å,
-/// r(CH) = 1.0800 Å (J. Gauss and J. F. Stanton, J. Phys. Chem. A 104, 2865 (2000);
-/// from memory), in full precision so the pairs are degenerate to ~1e-14 eV.
-fn benzene() -> String {
-    let mut t = String::from("12\nbenzene\n");
-    for (el, r) in [("C", 1.3915), ("H", 1.3915 + 1.08)] {
-        for k in 0..6 {
-            let a = (60.0 * k as f64).to_radians();
-            t += &format!("{el} {:.17e} {:.17e} 0\n", r * a.cos(), r * a.sin());
-        }
-    }
-    t
 }
 
 /// Σ nᵢ cᵢcᵢᵀ over all orbitals.
@@ -285,19 +265,7 @@ fn solve_output_marks_degenerate_sets() {
     std::fs::create_dir_all(&dir).unwrap();
     std::fs::write(dir.join("co2.xyz"), CO2).unwrap();
     std::fs::write(dir.join("o2.xyz"), O2).unwrap();
-    let run = |file: &str| {
-        let out = Command::new(BIN)
-            .current_dir(&dir)
-            .args(["solve", file, "--method", "extended-huckel"])
-            .output()
-            .unwrap();
-        assert!(
-            out.status.success(),
-            "{}",
-            String::from_utf8_lossy(&out.stderr)
-        );
-        String::from_utf8(out.stdout).unwrap()
-    };
+    let run = |file: &str| common::ok(&dir, &["solve", file, "--method", "extended-huckel"]);
     let text = run("co2.xyz");
     let row = |n: usize| {
         text.lines()

@@ -1,12 +1,14 @@
 //! The built-in demo, as a new user's first command: it must write every file its
 //! GALLERY.md lists (the reduced `--quick` gallery, into a temporary folder).
 
+mod common;
+
 use std::process::Command;
 
 #[test]
 fn quick_demo_writes_every_listed_file() {
     let dir = tempfile::tempdir().unwrap();
-    let out = Command::new(env!("CARGO_BIN_EXE_lobecast"))
+    let out = Command::new(common::BIN)
         .args(["demo", "--quick", "--out"])
         .arg(dir.path())
         .output()

@@ -3,24 +3,18 @@
 //! allocated (exit 2, one `error:` line naming the estimate and the budget, a true
 //! hint, no file), and a figure over the fixed work limit is refused at once.
 
+mod common;
+
 use std::io::Write;
-use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
+use std::path::Path;
+use std::process::Command;
 use std::time::{Duration, Instant};
 
 use lobecast::field::Field;
 use lobecast::io::cube::{CubeReader, Volume};
 use lobecast::source::Source;
 
-fn bin() -> PathBuf {
-    PathBuf::from(env!("CARGO_BIN_EXE_lobecast"))
-}
-
-fn example(name: &str) -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .join("examples")
-        .join(name)
-}
+use common::{assert_refused_one_hint, bin, example, run_here};
 
 /// Writes a gzip cube of `n`³ points (0.2 bohr apart, one H atom in the middle) with
 /// `fields` stored fields; field f (from 0) at point p holds `value(f, p)`.
@@ -58,26 +52,6 @@ fn write_cube(path: &Path, n: usize, fields: usize, value: impl Fn(usize, usize)
     gz.finish().unwrap().flush().unwrap();
 }
 
-fn run(args: &[&str]) -> Output {
-    Command::new(bin()).args(args).output().unwrap()
-}
-
-/// Exit 2, exactly one `error:` line holding every piece of `expect`, at most one
-/// `hint:` line (returned), no panic.
-fn refusal(o: &Output, expect: &[&str]) -> String {
-    let err = String::from_utf8_lossy(&o.stderr);
-    assert_eq!(o.status.code(), Some(2), "{err}");
-    assert!(!err.contains("panicked"), "{err}");
-    let errors: Vec<&str> = err.lines().filter(|l| l.starts_with("error:")).collect();
-    assert_eq!(errors.len(), 1, "{err}");
-    for e in expect {
-        assert!(errors[0].contains(e), "{e:?} missing from {err}");
-    }
-    let hints: Vec<&str> = err.lines().filter(|l| l.starts_with("hint:")).collect();
-    assert!(hints.len() <= 1, "{err}");
-    hints.first().map_or(String::new(), |h| h.to_string())
-}
-
 /// 300³ points × 1 field × 8 bytes = 216 000 000 bytes, 206 MiB (arithmetic), over
 /// a 64 MiB budget: refused with both figures before any value is stored.
 #[test]
@@ -87,7 +61,7 @@ fn cube_over_the_budget_is_refused_with_the_estimate() {
     write_cube(&cube, 300, 1, |_, _| "0".into());
     let png = dir.path().join("b.png");
     let started = Instant::now();
-    let o = run(&[
+    let o = run_here(&[
         "slice",
         cube.to_str().unwrap(),
         "--field",
@@ -99,13 +73,13 @@ fn cube_over_the_budget_is_refused_with_the_estimate() {
         "--memory",
         "64M",
     ]);
-    let hint = refusal(&o, &["206 MiB", "64 MiB", "300×300×300"]);
+    let hint = assert_refused_one_hint(&o, &["206 MiB", "64 MiB", "300×300×300"]);
     assert!(hint.contains("--memory"), "{hint}");
     assert!(!png.exists());
     // Refused from the header, without reading 27 million values.
     assert!(started.elapsed() < Duration::from_secs(5));
     let csv = dir.path().join("b.csv");
-    let o = run(&[
+    let o = run_here(&[
         "profile",
         cube.to_str().unwrap(),
         "--field",
@@ -119,7 +93,7 @@ fn cube_over_the_budget_is_refused_with_the_estimate() {
         "--memory",
         "64M",
     ]);
-    refusal(&o, &["206 MiB", "64 MiB"]);
+    assert_refused_one_hint(&o, &["206 MiB", "64 MiB"]);
     assert!(!csv.exists());
 }
 
@@ -162,7 +136,7 @@ fn a_multi_field_cube_keeps_only_the_field_drawn() {
 
     // Through the command: a budget just above one field's need suffices.
     let csv = dir.path().join("p.csv");
-    let o = run(&[
+    let o = run_here(&[
         "profile",
         cube.to_str().unwrap(),
         "--field",
@@ -220,7 +194,7 @@ fn sixteen_huge_panels_are_refused_at_once() {
         } else {
             "8.0 GiB"
         };
-        let hint = refusal(&o, &["16 map(s)", "GiB of memory", budget]);
+        let hint = assert_refused_one_hint(&o, &["16 map(s)", "GiB of memory", budget]);
         assert!(
             hint.contains("--memory") && hint.contains("more --columns"),
             "{hint}"
@@ -255,7 +229,7 @@ fn work_over_the_limit_is_refused() {
     std::fs::write(&xyz, text).unwrap();
     let png = dir.path().join("w.png");
     let started = Instant::now();
-    let o = run(&[
+    let o = run_here(&[
         "slice",
         xyz.to_str().unwrap(),
         "--method",
@@ -269,7 +243,7 @@ fn work_over_the_limit_is_refused() {
         "--png",
         png.to_str().unwrap(),
     ]);
-    let hint = refusal(&o, &["operations", "over the limit of 1e12"]);
+    let hint = assert_refused_one_hint(&o, &["operations", "over the limit of 1e12"]);
     assert!(hint.contains("a smaller --size"), "{hint}");
     assert!(started.elapsed() < Duration::from_secs(30));
     assert!(!png.exists());
@@ -291,7 +265,7 @@ fn an_allocation_the_system_refuses_is_an_error() {
         png.display()
     );
     let o = Command::new("sh").arg("-c").arg(&script).output().unwrap();
-    let hint = refusal(&o, &["206 MiB", "system refused"]);
+    let hint = assert_refused_one_hint(&o, &["206 MiB", "system refused"]);
     assert!(hint.contains("ulimit"), "{hint}");
     assert!(!png.exists());
 }

@@ -2,23 +2,13 @@
 //! named, negative numbers read as values and refused with a reason and a unit, `--up`
 //! checked against the plane, and the help naming every kind of source and field.
 
+mod common;
+
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
+use std::process::Command;
 use std::time::{Duration, Instant};
 
-fn bin() -> PathBuf {
-    PathBuf::from(env!("CARGO_BIN_EXE_lobecast"))
-}
-
-fn example(name: &str) -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .join("examples")
-        .join(name)
-}
-
-fn run(args: &[&str]) -> Output {
-    Command::new(bin()).args(args).output().unwrap()
-}
+use common::{bin, example, run_here};
 
 /// Runs `lobecast COMMAND SOURCE ARGS… --png/--csv OUT` and checks the refusal: exit 2,
 /// exactly one `error:` line containing `expect`, no panic, no file, done quickly.
@@ -168,7 +158,7 @@ fn negative_numbers_are_values_refused_with_a_reason_and_a_unit() {
     // A negative coordinate is a value, not a flag.
     let dir = tempfile::tempdir().unwrap();
     let csv = dir.path().join("p.csv");
-    let o = run(&[
+    let o = run_here(&[
         "profile",
         h2().to_str().unwrap(),
         "--field",
@@ -220,7 +210,7 @@ fn up_is_checked_against_the_plane() {
     // as W,H in picture directions.
     let dir = tempfile::tempdir().unwrap();
     let png = dir.path().join("up.png");
-    let o = run(&[
+    let o = run_here(&[
         "slice",
         h2().to_str().unwrap(),
         "--field",
@@ -242,12 +232,12 @@ fn up_is_checked_against_the_plane() {
 
 #[test]
 fn slice_help_names_every_source_and_field() {
-    let o = run(&["slice", "--help"]);
+    let o = run_here(&["slice", "--help"]);
     let help = String::from_utf8_lossy(&o.stdout);
     for word in ["XYZ", "deformation", "stored:K", "cube", "orbital-density"] {
         assert!(help.contains(word), "slice --help lacks {word}:\n{help}");
     }
-    let o = run(&["profile", "--help"]);
+    let o = run_here(&["profile", "--help"]);
     let help = String::from_utf8_lossy(&o.stdout);
     for word in ["XYZ", "deformation", "stored:K"] {
         assert!(help.contains(word), "profile --help lacks {word}:\n{help}");
@@ -261,7 +251,7 @@ fn extended_huckel_titles_give_energies_in_ev() {
     // any value in hartree.
     let dir = tempfile::tempdir().unwrap();
     let png = dir.path().join("t.png");
-    let o = run(&[
+    let o = run_here(&[
         "slice",
         example("ethylene.xyz").to_str().unwrap(),
         "--method",

@@ -2,6 +2,8 @@
 //! marching-squares contour of a 1s function against its analytic radius, profile
 //! CSV against direct evaluation, reference images, and bad input on the CLI.
 
+mod common;
+
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
@@ -12,14 +14,7 @@ use lobecast::render::slice::{Contours, Figure, Panel, Rendered, Style, render};
 use lobecast::render::{Colour, Scale};
 use lobecast::solve::OrbitalSet;
 
-const H2_PLUS: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-    atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
-    [basis]\nset = \"slater-1s\"\n";
-
-fn set_of(model: &str) -> OrbitalSet {
-    let m = lobecast::io::model::parse(model, Path::new("test.toml")).unwrap();
-    m.solve().unwrap()
-}
+use common::{H2, bin, solve_model};
 
 fn panel(signed: bool) -> Panel {
     Panel {
@@ -34,7 +29,7 @@ fn panel(signed: bool) -> Panel {
 
 /// Renders fields of `set` on the xz plane in a window centred on the origin.
 fn draw(set: &OrbitalSet, fields: &[&str], window: Window, style: &Style) -> Rendered {
-    let fields: Vec<Field> = fields.iter().map(|f| Field::parse(f).unwrap()).collect();
+    let fields: Vec<Field> = common::fields(fields);
     let sampler = FieldSampler::new(set, &fields).unwrap();
     let plane = PlaneSpec::parse("xz", lobecast::chem::LengthUnit::Bohr)
         .unwrap()
@@ -98,7 +93,7 @@ fn symmetric_orbital_gives_a_mirror_symmetric_slice() {
     // The bonding orbital of a homonuclear diatomic is symmetric under z → −z and
     // x → −x (symmetry of the molecule, common practice): its slice must be too,
     // to within one colour step (one unit in any 8-bit channel).
-    let set = set_of(H2_PLUS);
+    let set = solve_model(H2);
     let window = Window::centred([0.0, 0.0], 8.0, 9.0);
     let r = draw(&set, &["orbital:1"], window, &plain());
     assert!(mirror_error(&r, true) <= 1, "z mirror");
@@ -113,7 +108,7 @@ fn nodal_plane_has_the_scale_zero_colour() {
     // ψ₂ = (φ_A − φ_B)/√(2(1 − S)) vanishes on the plane z = 0 between two identical
     // nuclei (symmetry, common practice); a symmetric diverging scale puts zero at
     // its midpoint, so those pixels must have exactly the colour at t = ½.
-    let set = set_of(H2_PLUS);
+    let set = solve_model(H2);
     // An odd number of rows puts the middle row's pixel centres on z = 0.
     let mut found = false;
     for width in 1000..1010 {
@@ -146,7 +141,7 @@ fn nodal_plane_has_the_scale_zero_colour() {
 fn colour_bar_ends_are_plus_and_minus_the_largest_magnitude() {
     // A symmetric diverging scale runs from −max|f| to +max|f| (common practice);
     // max|f| is recomputed here by direct evaluation at the same pixel centres.
-    let set = set_of(H2_PLUS);
+    let set = solve_model(H2);
     let r = draw(
         &set,
         &["orbital:2"],
@@ -183,7 +178,7 @@ fn contour_of_a_1s_function_is_a_circle_of_the_analytic_radius() {
         "[molecule]\nunits = \"bohr\"\natoms = [{{ element = \"H\", position = [0, 0, 0] }}]\n\
          [basis]\nset = \"slater-1s\"\nzeta = {{ H = {zeta} }}\n"
     );
-    let set = set_of(&model);
+    let set = solve_model(&model);
     let r = draw(
         &set,
         &["orbital:1"],
@@ -223,12 +218,8 @@ fn contour_of_a_1s_function_is_a_circle_of_the_analytic_radius() {
     println!("largest relative radius error: {worst:.2e}");
 }
 
-fn bin() -> PathBuf {
-    PathBuf::from(env!("CARGO_BIN_EXE_lobecast"))
-}
-
 fn example() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/h2-cation.toml")
+    common::example("h2-cation.toml")
 }
 
 #[test]

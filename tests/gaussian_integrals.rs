@@ -2,24 +2,17 @@
 //! quadrature written here (no recurrence, no Hermite expansion, no Boys function),
 //! closed forms and a published energy.
 
+mod common;
+
 use lobecast::integrals::boys::boys;
 use lobecast::integrals::gaussian::{
     CartesianShell, cartesian_components, kinetic_block, nuclear_block, overlap_block,
 };
 use lobecast::numerics::quadrature::gauss_legendre;
 
-// ---------------------------------------------------------------- quadrature tools
+use common::composite;
 
-/// Nodes and weights of `panels` equal Gauss–Legendre panels over [lo, hi].
-fn composite(rule: &[(f64, f64)], lo: f64, hi: f64, panels: usize) -> Vec<(f64, f64)> {
-    let h = (hi - lo) / panels as f64;
-    let mut out = Vec::with_capacity(rule.len() * panels);
-    for k in 0..panels {
-        let mid = lo + (k as f64 + 0.5) * h;
-        out.extend(rule.iter().map(|&(x, w)| (mid + 0.5 * h * x, 0.5 * h * w)));
-    }
-    out
-}
+// ---------------------------------------------------------------- quadrature tools
 
 /// Neumaier-compensated running sum, so the references carry no visible rounding.
 #[derive(Default, Clone, Copy)]

@@ -8,22 +8,18 @@
 //!   Phil. Trans. R. Soc. Lond. A 246, 215 (1953); from memory, and the value the
 //!   project's issue quotes).
 
-use std::path::Path;
+mod common;
 
 use lobecast::integrals::two_centre::two_centre_1s;
 
 const EXACT_R2_HARTREE: f64 = -0.602_634_2;
 
 fn energy(model: &str) -> f64 {
-    let m = lobecast::io::model::parse(model, Path::new("t.toml")).unwrap();
-    m.solve().unwrap().orbitals[0].energy
+    common::solve_model(model).orbitals[0].energy
 }
 
 fn h2(basis: &str) -> String {
-    format!(
-        "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-         atoms = [{{ element = \"H\", position = [0, 0, -1] }}, {{ element = \"H\", position = [0, 0, 1] }}]\n{basis}"
-    )
+    format!("{}{basis}", common::H2_MOLECULE)
 }
 
 #[test]

@@ -1,27 +1,19 @@
 //! The two-centre orbitals sampled on a grid: normalisation, the zero integral of the
 //! deformation density, the nodal plane, and the exact values at the bond midpoint.
 
-use std::f64::consts::PI;
-use std::path::Path;
+mod common;
 
-use lobecast::field::{Field, FieldSampler};
+use std::f64::consts::PI;
+
+use lobecast::field::FieldSampler;
 use lobecast::grid::{GridBox, Resolution, sample_all};
 use lobecast::integrals::two_centre::two_centre_1s;
 use lobecast::solve::OrbitalSet;
 
-const MODEL: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-    atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
-    [basis]\nset = \"slater-1s\"\n";
+use common::fields;
 
 fn set() -> OrbitalSet {
-    lobecast::io::model::parse(MODEL, Path::new("t.toml"))
-        .unwrap()
-        .solve()
-        .unwrap()
-}
-
-fn fields(list: &[&str]) -> Vec<Field> {
-    list.iter().map(|f| Field::parse(f).unwrap()).collect()
+    common::solve_model(common::H2)
 }
 
 /// Riemann sums over the box at 0.1 bohr with the default 5 bohr padding. The

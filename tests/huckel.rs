@@ -2,48 +2,24 @@
 //! planar molecule, benzene's degenerate frontier levels, electron counts of the
 //! densities on a grid, and invariance under rotation and translation.
 
-use std::path::Path;
+mod common;
 
+use lobecast::chem::Molecule;
 use lobecast::chem::units::HARTREE_IN_EV;
-use lobecast::chem::{LengthUnit, Molecule};
 use lobecast::field::{Field, FieldSampler};
 use lobecast::grid::{GridBox, Resolution, sample_all};
-use lobecast::io::xyz::parse_xyz;
 use lobecast::solve::OrbitalSet;
 use lobecast::solve::huckel::solve;
 use lobecast::solve::huckel_params::HuckelOptions;
 
-fn molecule(xyz: &str, charge: i32) -> Molecule {
-    let f = parse_xyz(xyz, "t.xyz", LengthUnit::Angstrom).unwrap();
-    Molecule::new(f.atoms, charge).unwrap()
-}
+use common::{benzene, molecule};
 
 fn eht(m: &Molecule) -> OrbitalSet {
     solve(m, &HuckelOptions::default()).unwrap()
 }
 
 fn example(name: &str) -> String {
-    std::fs::read_to_string(
-        Path::new(env!("CARGO_MANIFEST_DIR"))
-            .join("examples")
-            .join(name),
-    )
-    .unwrap()
-}
-
-/// Benzene built here in full double precision (the example file rounds to 1e-6 Å,
-/// which splits the degenerate pairs by ~1e-6 eV): D6h, r(CC) = 1.3915 Å,
-/// r(CH) = 1.0800 Å (J. Gauss and J. F. Stanton, J. Phys. Chem. A 104, 2865 (2000);
-/// from memory).
-fn benzene() -> String {
-    let mut t = String::from("12\nbenzene\n");
-    for (el, r) in [("C", 1.3915), ("H", 1.3915 + 1.08)] {
-        for k in 0..6 {
-            let a = (60.0 * k as f64).to_radians();
-            t += &format!("{el} {:.17e} {:.17e} 0\n", r * a.cos(), r * a.sin());
-        }
-    }
-    t
+    std::fs::read_to_string(common::example(name)).unwrap()
 }
 
 /// H2 with only 1s functions: the secular equation of a symmetric dimer gives

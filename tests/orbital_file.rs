@@ -1,14 +1,15 @@
 //! The orbital file: what lobecast writes it reads back to identical numbers, and
 //! malformed files are refused with one error that names the field at fault.
 
-use std::path::Path;
+mod common;
 
 use lobecast::field::{Field, FieldSampler};
 use lobecast::io::orbitals::{parse, to_json};
 
-const H2: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-    atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
-    [basis]\nset = \"slater-1s\"\nzeta = { H = 1.2 }\n";
+/// H2⁺ with the 1s exponent set to 1.2.
+fn h2() -> String {
+    format!("{}zeta = {{ H = 1.2 }}\n", common::H2)
+}
 
 const GAUSSIAN: &str = r#"{
   "format": "lobecast-orbitals", "version": 1, "length_unit": "bohr", "energy_unit": "hartree",
@@ -24,7 +25,7 @@ const GAUSSIAN: &str = r#"{
 }"#;
 
 fn values(set: &lobecast::solve::OrbitalSet, fields: &[&str], pts: &[[f64; 3]]) -> Vec<f64> {
-    let fields: Vec<Field> = fields.iter().map(|f| Field::parse(f).unwrap()).collect();
+    let fields: Vec<Field> = common::fields(fields);
     let s = FieldSampler::new(set, &fields).unwrap();
     let mut v = vec![0.0; pts.len() * fields.len()];
     s.evaluate(pts, &mut v);
@@ -33,10 +34,7 @@ fn values(set: &lobecast::solve::OrbitalSet, fields: &[&str], pts: &[[f64; 3]]) 
 
 #[test]
 fn round_trip_keeps_every_number() {
-    let set = lobecast::io::model::parse(H2, Path::new("m.toml"))
-        .unwrap()
-        .solve()
-        .unwrap();
+    let set = common::solve_model(&h2());
     let text = to_json(&set);
     let back = parse(&text, "o.json").unwrap();
     assert_eq!(
@@ -135,7 +133,7 @@ fn fractional_occupations_and_partial_files_invent_no_charge() {
                 {"atom": 1, "type": "gaussian", "powers": [0, 0, 0], "primitives": [[1.0, 1.0]]}],
       "orbitals": [{"energy": -0.5, "occupation": 0.7, "coefficients": [0.6, 0.6]}]}"#;
     std::fs::write(d.path().join("frac.json"), frac).unwrap();
-    let out = std::process::Command::new(env!("CARGO_BIN_EXE_lobecast"))
+    let out = std::process::Command::new(common::BIN)
         .current_dir(d.path())
         .args(["solve", "frac.json"])
         .output()

@@ -4,32 +4,15 @@
 //! temporary files. The expected behaviour is the documented contract of
 //! `src/output/` (common practice for careful command-line tools).
 
+mod common;
+
 use std::fs;
 use std::path::Path;
 use std::process::{Command, Output, Stdio};
 
-const BIN: &str = env!("CARGO_BIN_EXE_lobecast");
-const H2: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-    atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
-    [basis]\nset = \"slater-1s\"\n";
+use common::{BIN, H2, assert_error_first, names, run};
+
 const SCAN: [&str; 6] = ["--from", "1", "--to", "2", "--step", "0.5"];
-
-fn run(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN)
-        .current_dir(dir)
-        .args(args)
-        .output()
-        .expect("the binary runs")
-}
-
-fn names(dir: &Path) -> Vec<String> {
-    let mut n: Vec<String> = fs::read_dir(dir)
-        .unwrap()
-        .map(|e| e.unwrap().file_name().into_string().unwrap())
-        .collect();
-    n.sort();
-    n
-}
 
 fn setup() -> tempfile::TempDir {
     let dir = tempfile::tempdir().unwrap();
@@ -44,12 +27,6 @@ fn curve(dir: &Path, extra: &[&str]) -> Output {
     run(dir, &args)
 }
 
-fn assert_refused(out: &Output, needle: &str) {
-    let err = String::from_utf8_lossy(&out.stderr);
-    assert_eq!(out.status.code(), Some(2), "{err}");
-    assert!(err.starts_with("error: ") && err.contains(needle), "{err}");
-}
-
 #[test]
 fn a_missing_folder_fails_before_any_file_is_written() {
     let dir = setup();
@@ -57,7 +34,7 @@ fn a_missing_folder_fails_before_any_file_is_written() {
         dir.path(),
         &["--csv", "c.csv", "--json", "c.json", "--png", "nodir/c.png"],
     );
-    assert_refused(&out, "does not exist");
+    assert_error_first(&out, "does not exist");
     assert_eq!(names(dir.path()), ["h2.toml"]);
 }
 
@@ -65,7 +42,7 @@ fn a_missing_folder_fails_before_any_file_is_written() {
 fn two_outputs_with_one_name_are_refused() {
     let dir = setup();
     let out = curve(dir.path(), &["--csv", "c.csv", "--png", "./c.csv"]);
-    assert_refused(&out, "same file");
+    assert_error_first(&out, "same file");
     assert_eq!(names(dir.path()), ["h2.toml"]);
 }
 
@@ -73,7 +50,7 @@ fn two_outputs_with_one_name_are_refused() {
 fn an_input_is_never_an_output() {
     let dir = setup();
     let out = curve(dir.path(), &["--csv", "./h2.toml"]);
-    assert_refused(&out, "also an input");
+    assert_error_first(&out, "also an input");
     assert_eq!(fs::read_to_string(dir.path().join("h2.toml")).unwrap(), H2);
 }
 
@@ -86,15 +63,15 @@ fn devices_fifos_and_folders_are_not_replaced() {
     let made = Command::new("mkfifo").arg(&fifo).status();
     if made.is_ok_and(|s| s.success()) {
         let out = curve(dir.path(), &["--csv", "pipe"]);
-        assert_refused(&out, "FIFO");
+        assert_error_first(&out, "FIFO");
         assert!(fs::symlink_metadata(&fifo).unwrap().file_type().is_fifo());
     }
     let out = curve(dir.path(), &["--csv", "/dev/null"]);
-    assert_refused(&out, "a device");
+    assert_error_first(&out, "a device");
     assert!(!fs::metadata("/dev/null").unwrap().is_file());
     fs::create_dir(dir.path().join("sub")).unwrap();
     let out = curve(dir.path(), &["--csv", "sub"]);
-    assert_refused(&out, "a folder");
+    assert_error_first(&out, "a folder");
 }
 
 #[cfg(unix)]
@@ -209,11 +186,7 @@ fn an_interrupt_removes_the_unfinished_cube() {
 #[test]
 fn solve_json_to_stdout_stays_parseable() {
     let dir = tempfile::tempdir().unwrap();
-    std::fs::write(
-        dir.path().join("m.toml"),
-        "[molecule]\nunits = \"bohr\"\ncharge = 1\natoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n[basis]\nset = \"slater-1s\"\n",
-    )
-    .unwrap();
+    std::fs::write(dir.path().join("m.toml"), H2).unwrap();
     let out = run(dir.path(), &["solve", "m.toml", "--json", "-"]);
     assert!(out.status.success());
     let doc: serde_json::Value = serde_json::from_slice(&out.stdout).expect("stdout is JSON");

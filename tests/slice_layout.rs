@@ -3,39 +3,16 @@
 //! leaves (no data, not zero), and many panels (maps keep a readable size and tick
 //! labels never overlap).
 
+mod common;
+
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
 
 use lobecast::grid::plane::{PixelGrid, PlaneSpec, Window};
 use lobecast::render::axes::overlap;
 use lobecast::render::slice::{Contours, Figure, MIN_MAP, Panel, Rendered, Style, render};
 use lobecast::render::{Colour, Scale, ticks};
 
-fn bin() -> PathBuf {
-    PathBuf::from(env!("CARGO_BIN_EXE_lobecast"))
-}
-
-fn example(name: &str) -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .join("examples")
-        .join(name)
-}
-
-fn run(args: &[&str]) -> Output {
-    Command::new(bin()).args(args).output().unwrap()
-}
-
-/// Exit 2, exactly one `error:` line containing every word of `expect`, no panic.
-fn assert_refused(o: &Output, expect: &[&str]) {
-    let err = String::from_utf8_lossy(&o.stderr);
-    assert_eq!(o.status.code(), Some(2), "{err}");
-    let errors: Vec<&str> = err.lines().filter(|l| l.starts_with("error: ")).collect();
-    assert_eq!(errors.len(), 1, "{err}");
-    for e in expect {
-        assert!(errors[0].contains(e), "{e:?} not in {err}");
-    }
-    assert!(!err.contains("panicked"), "{err}");
-}
+use common::{assert_refused, example, run_here};
 
 fn panel(largest: Option<f64>) -> Panel {
     Panel {
@@ -101,7 +78,7 @@ fn single_map_of_a_field_zero_on_the_plane_is_refused() {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("a.png");
     let h2 = example("h2-cation.toml");
-    let o = run(&[
+    let o = run_here(&[
         "slice",
         h2.to_str().unwrap(),
         "--field",
@@ -115,7 +92,7 @@ fn single_map_of_a_field_zero_on_the_plane_is_refused() {
     assert!(String::from_utf8_lossy(&o.stderr).contains("hint: the orbital has a node"));
     assert!(!out.exists());
     // The bonding orbital is not zero there: the same command draws it.
-    let ok = run(&[
+    let ok = run_here(&[
         "slice",
         h2.to_str().unwrap(),
         "--field",
@@ -138,7 +115,7 @@ fn panels_draw_a_field_zero_on_the_plane_blank() {
     // practice), so on xy it is rounding noise; its σ neighbour homo-1 is not.
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("e.png");
-    let o = run(&[
+    let o = run_here(&[
         "slice",
         example("ethylene.xyz").to_str().unwrap(),
         "--method",
@@ -206,7 +183,7 @@ fn a_blank_panel_is_one_uniform_zero_colour() {
 /// A cube of H₂⁺'s bonding orbital whose box ends 1.5 Å beyond the nuclei.
 fn cube(dir: &Path) -> PathBuf {
     let path = dir.join("s.cube");
-    let o = run(&[
+    let o = run_here(&[
         "volume",
         example("h2-cation.toml").to_str().unwrap(),
         "--field",
@@ -228,7 +205,7 @@ fn a_plane_or_line_missing_the_cube_box_is_refused() {
     let dir = tempfile::tempdir().unwrap();
     let c = cube(dir.path());
     let png = dir.path().join("c.png");
-    let o = run(&[
+    let o = run_here(&[
         "slice",
         c.to_str().unwrap(),
         "--field",
@@ -241,7 +218,7 @@ fn a_plane_or_line_missing_the_cube_box_is_refused() {
     assert_refused(&o, &["misses the cube's box"]);
     assert!(!png.exists());
     let csv = dir.path().join("p.csv");
-    let o = run(&[
+    let o = run_here(&[
         "profile",
         c.to_str().unwrap(),
         "--field",
@@ -266,7 +243,7 @@ fn profile_beyond_the_cube_box_leaves_cells_empty() {
     let csv = dir.path().join("p.csv");
     let png = dir.path().join("p.png");
     // z from −3 to 3 Å at 1 Å steps; the box ends near ±2.03 Å (0.53 + 1.5).
-    let o = run(&[
+    let o = run_here(&[
         "profile",
         c.to_str().unwrap(),
         "--field",
@@ -394,7 +371,7 @@ fn benzene_six_panels_at_the_default_size_are_drawn() {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("x.png");
     let panels = "orbital:1,orbital:2,orbital:3,orbital:4,orbital:5,orbital:6";
-    let o = run(&[
+    let o = run_here(&[
         "slice",
         example("benzene.xyz").to_str().unwrap(),
         "--method",

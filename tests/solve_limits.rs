@@ -3,58 +3,16 @@
 //! count options out of range. Each case must give exit status 2, one `error:` line
 //! (plus at most a `hint:` line) and no file left behind.
 
-use std::fs;
-use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
+mod common;
 
-const BIN: &str = env!("CARGO_BIN_EXE_lobecast");
-const H2: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-    atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
-    [basis]\nset = \"slater-1s\"\n";
-
-fn run(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN)
-        .current_dir(dir)
-        .args(args)
-        .output()
-        .expect("the binary runs")
-}
-
-fn write(dir: &Path, name: &str, text: &str) -> PathBuf {
-    let p = dir.join(name);
-    fs::write(&p, text).unwrap();
-    p
-}
-
-/// Asserts exit status 2, one `error:` line (plus at most a `hint:` line) that
-/// contains `needle`, and that the folder holds only `keep` afterwards.
-fn assert_input_error(dir: &Path, out: &Output, needle: &str, keep: &[&str]) -> String {
-    let err = String::from_utf8_lossy(&out.stderr).into_owned();
-    assert_eq!(out.status.code(), Some(2), "stderr: {err}");
-    let lines: Vec<&str> = err.lines().collect();
-    assert!(lines[0].starts_with("error: "), "{err}");
-    assert!(
-        lines.len() == 1 || (lines.len() == 2 && lines[1].starts_with("hint: ")),
-        "{err}"
-    );
-    assert!(err.contains(needle), "expected {needle:?} in {err}");
-    let mut names: Vec<String> = fs::read_dir(dir)
-        .unwrap()
-        .map(|e| e.unwrap().file_name().into_string().unwrap())
-        .collect();
-    names.sort();
-    let mut keep: Vec<String> = keep.iter().map(|s| s.to_string()).collect();
-    keep.sort();
-    assert_eq!(names, keep, "no partial output may remain");
-    err
-}
+use common::{H2, assert_input_error, run, write_file};
 
 /// The reported case: `lumo+18446744073709551615` wrapped around and wrote the HOMO
 /// with exit status 0. H2⁺ in slater-1s has two orbitals, the lower one occupied.
 #[test]
 fn huge_orbital_offsets_are_refused() {
     let d = tempfile::tempdir().unwrap();
-    write(d.path(), "h2.toml", H2);
+    write_file(d.path(), "h2.toml", H2);
     let cases: &[(&str, &str)] = &[
         (
             "orbital:lumo+18446744073709551615",
@@ -107,7 +65,7 @@ fn twenty_thousand_atoms_are_refused_with_the_estimate() {
             1.5 * l as f64
         );
     }
-    write(d.path(), "big.xyz", &xyz);
+    write_file(d.path(), "big.xyz", &xyz);
     let out = run(
         d.path(),
         &[
@@ -125,7 +83,7 @@ fn twenty_thousand_atoms_are_refused_with_the_estimate() {
         "{err}"
     );
     // A smaller budget refuses a small molecule too, naming the budget given.
-    write(d.path(), "h2.xyz", "2\nH2\nH 0 0 0\nH 0 0 0.74\n");
+    write_file(d.path(), "h2.xyz", "2\nH2\nH 0 0 0\nH 0 0 0.74\n");
     let out = run(
         d.path(),
         &[
@@ -165,7 +123,7 @@ fn a_five_thousand_primitive_shell_is_refused() {
          [basis]\nset = \"custom\"\n[basis.shells]\nH = [{{ l = 0, primitives = [{}] }}]\n",
         prims.join(", ")
     );
-    write(d.path(), "wide.toml", &model);
+    write_file(d.path(), "wide.toml", &model);
     let out = run(d.path(), &["solve", "wide.toml"]);
     assert_input_error(
         d.path(),

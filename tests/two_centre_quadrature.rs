@@ -11,20 +11,12 @@
 //! (λ²−μ²)(1/rA + 1/rB) = 4λ/R, and, with r̂A·r̂B = (rA²+rB²−R²)/(2 rA rB),
 //! (λ²−μ²) r̂A·r̂B = λ² + μ² − 2. Every integrand below is smooth (analytic).
 
+mod common;
+
 use lobecast::integrals::two_centre::{TwoCentre1s, two_centre_1s};
 use lobecast::numerics::quadrature::gauss_legendre;
 
-/// Composite rule: `panels` equal panels on [a, b], each with the rule `gl`.
-fn composite(a: f64, b: f64, panels: usize, gl: &[(f64, f64)]) -> Vec<(f64, f64)> {
-    let h = (b - a) / panels as f64;
-    (0..panels)
-        .flat_map(|p| {
-            let mid = a + h * (p as f64 + 0.5);
-            gl.iter()
-                .map(move |&(x, w)| (mid + 0.5 * h * x, 0.5 * h * w))
-        })
-        .collect()
-}
+use common::composite;
 
 /// Quadrature resolution. Every λ-integrand decays at least as e^(−ζRλ); with
 /// t = ζR(λ−1) the neglected tail beyond t = T is bounded by
@@ -66,8 +58,8 @@ struct Raw {
 fn raw(zeta: f64, r: f64, res: Resolution) -> Raw {
     let a = zeta * r;
     let gl = gauss_legendre(res.order);
-    let ts = composite(0.0, res.t_max, res.lambda_panels, &gl);
-    let mus = composite(-1.0, 1.0, res.mu_panels, &gl);
+    let ts = composite(&gl, 0.0, res.t_max, res.lambda_panels);
+    let mus = composite(&gl, -1.0, 1.0, res.mu_panels);
     // φAφB = (ζ³/π) e^(−aλ), φA² = (ζ³/π) e^(−a(λ+μ)); 2π (R/2)³ ζ³/π = a³/4.
     let pre = a.powi(3) / 4.0;
     // Inner (μ) sums per λ node, then a compensated (Neumaier) outer sum, so that
