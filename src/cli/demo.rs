@@ -45,17 +45,27 @@ fn step(title: &'static str, files: &[(&str, &str)], args: &str) -> Step {
     }
 }
 
-/// The model at separation `r` (bohr), written into the gallery's models folder.
-fn h2_model(r: f64) -> String {
-    H2_CATION
-        .replace(
-            "position = [0.0, 0.0, -1.0]",
-            &format!("position = [0.0, 0.0, {}]", -0.5 * r),
-        )
-        .replace(
-            "position = [0.0, 0.0, 1.0]",
-            &format!("position = [0.0, 0.0, {}]", 0.5 * r),
-        )
+/// The model at separation `r` (bohr), written into the gallery's models folder:
+/// the example model read as TOML data, its two nuclei placed at z = ∓r/2.
+fn h2_model(r: f64) -> Result<String> {
+    let bad = |why: String| Error::internal(format!("the built-in ion model: {why}"));
+    let mut doc: toml::Table = H2_CATION.parse().map_err(|e| bad(format!("{e}")))?;
+    let atoms = doc
+        .get_mut("molecule")
+        .and_then(|m| m.get_mut("atoms"))
+        .and_then(|a| a.as_array_mut())
+        .filter(|a| a.len() == 2)
+        .ok_or_else(|| bad("no [molecule] atoms pair".into()))?;
+    for (atom, z) in atoms.iter_mut().zip([-0.5 * r, 0.5 * r]) {
+        let atom = atom
+            .as_table_mut()
+            .ok_or_else(|| bad("an atom is not a table".into()))?;
+        atom.insert("position".into(), vec![0.0, 0.0, z].into());
+    }
+    let text = toml::to_string(&doc).map_err(|e| bad(format!("{e}")))?;
+    Ok(format!(
+        "# The one-electron ion of the demo at R = {r} bohr (written by lobecast demo)\n{text}"
+    ))
 }
 
 fn steps(quick: bool) -> Vec<Step> {
@@ -175,7 +185,7 @@ pub fn run(args: DemoArgs) -> Result<()> {
         write_bytes(
             &out.join(format!("models/h2plus-r{r:.1}.toml")),
             &[],
-            h2_model(r).as_bytes(),
+            h2_model(r)?.as_bytes(),
         )?;
     }
     let exe = std::env::current_exe()
