@@ -4,6 +4,7 @@
 pub mod arith;
 pub mod format;
 mod header;
+pub mod number;
 pub mod reader;
 pub mod sink;
 pub mod stats;

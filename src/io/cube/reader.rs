@@ -13,6 +13,7 @@ use std::fs::File;
 use std::io::{BufRead, BufReader, Read};
 use std::path::Path;
 
+use super::number::{MAX_TOKEN, is_space, parse_finite, parse_int};
 use super::writer::{CubeAtom, CubeHeader};
 use crate::chem::units::BOHR_IN_ANGSTROM;
 use crate::error::{Error, Result};
@@ -20,8 +21,6 @@ use crate::grid::GridBox;
 
 /// Longest header line accepted; real headers are a few hundred bytes.
 const MAX_LINE: usize = 1 << 16;
-/// Longest number token accepted (a double needs at most ~25 characters).
-const MAX_TOKEN: usize = 64;
 /// Deflate cannot expand data by more than about 1032:1, which bounds what a gzip
 /// file of a given size can hold.
 const GZIP_MAX_RATIO: u64 = 1032;
@@ -201,7 +200,54 @@ impl CubeReader {
         let (_, comment) = self.need_line("the second comment line")?;
         self.info.header.title = title;
         self.info.header.comment = comment;
+        let (natoms, origin, value_column) = self.read_count_line()?;
+        let (counts, axes, angstrom) = self.read_axes()?;
+        let scale = if angstrom {
+            1.0 / BOHR_IN_ANGSTROM
+        } else {
+            1.0
+        };
+        let grid = GridBox {
+            origin: origin.map(|x| x * scale),
+            axes: axes.map(|a| a.map(|x| x * scale)),
+            counts,
+        };
+        if grid.voxel_volume() == 0.0 {
+            return Err(self.err(
+                self.line - 1,
+                "the three step vectors span no volume (zero or parallel)",
+            ));
+        }
+        self.info.header.atoms = self.read_atoms(natoms, scale)?;
+        self.info.angstrom = angstrom;
 
+        let mut fields = value_column.unwrap_or(1);
+        if natoms < 0 {
+            let nums = self.read_index_line()?;
+            if value_column.is_some_and(|v| v != 1 && v != nums.len()) {
+                return Err(self.err(
+                    3,
+                    format_args!(
+                        "the header says {} values per point but the orbital-index line lists {} fields",
+                        fields,
+                        nums.len()
+                    ),
+                ));
+            }
+            fields = nums.len();
+            self.info.header.orbital_numbers = Some(nums);
+        }
+        self.info.fields = fields;
+        self.info.header.grid = grid;
+        self.remaining = self.check_claim(counts, fields, budget)?;
+        // Until a value is read, "where the file ends" is the last header line.
+        self.tok_line = self.line - 1;
+        Ok(())
+    }
+
+    /// Line 3: the atom count (negative for the multi-field variant), the origin,
+    /// and the optional number of values per point.
+    fn read_count_line(&mut self) -> Result<(i64, [f64; 3], Option<usize>)> {
         let (ln, l) = self.need_line("the atom count and origin")?;
         let t: Vec<&str> = l.split_whitespace().collect();
         if !(t.len() == 4 || t.len() == 5) {
@@ -233,7 +279,12 @@ impl CubeReader {
             }
             None => None,
         };
+        Ok((natoms, origin, value_column))
+    }
 
+    /// Lines 4–6: points and step vector per axis, in the file's unit; whether the
+    /// counts were negative (lengths in ångström).
+    fn read_axes(&mut self) -> Result<([usize; 3], [[f64; 3]; 3], bool)> {
         let mut counts = [0usize; 3];
         let mut axes = [[0.0; 3]; 3];
         let mut signs = [false; 3];
@@ -265,24 +316,11 @@ impl CubeReader {
                 ));
             }
         }
-        let angstrom = signs[0];
-        let scale = if angstrom {
-            1.0 / BOHR_IN_ANGSTROM
-        } else {
-            1.0
-        };
-        let grid = GridBox {
-            origin: origin.map(|x| x * scale),
-            axes: axes.map(|a| a.map(|x| x * scale)),
-            counts,
-        };
-        if grid.voxel_volume() == 0.0 {
-            return Err(self.err(
-                self.line - 1,
-                "the three step vectors span no volume (zero or parallel)",
-            ));
-        }
+        Ok((counts, axes, signs[0]))
+    }
 
+    /// The atom lines, positions scaled to bohr.
+    fn read_atoms(&mut self, natoms: i64, scale: f64) -> Result<Vec<CubeAtom>> {
         let mut atoms = Vec::new();
         for _ in 0..natoms.unsigned_abs() {
             let (ln, l) = self.need_line("an atom line")?;
@@ -313,30 +351,12 @@ impl CubeReader {
                 position: p,
             });
         }
-        self.info.header.atoms = atoms;
-        self.info.angstrom = angstrom;
+        Ok(atoms)
+    }
 
-        let mut fields = value_column.unwrap_or(1);
-        if natoms < 0 {
-            let nums = self.read_index_line()?;
-            if value_column.is_some_and(|v| v != 1 && v != nums.len()) {
-                return Err(self.err(
-                    3,
-                    format_args!(
-                        "the header says {} values per point but the orbital-index line lists {} fields",
-                        fields,
-                        nums.len()
-                    ),
-                ));
-            }
-            fields = nums.len();
-            self.info.header.orbital_numbers = Some(nums);
-        }
-        self.info.fields = fields;
-        self.info.header.grid = grid;
-
-        // Refuse impossible claims before anyone allocates for them: every value needs
-        // at least one digit and one separator.
+    /// Refuses impossible claims before anyone allocates for them: every value needs
+    /// at least one digit and one separator. Returns the number of values.
+    fn check_claim(&self, counts: [usize; 3], fields: usize, budget: Option<u64>) -> Result<usize> {
         let total = counts
             .iter()
             .fold(fields as u128, |acc, &c| acc.saturating_mul(c as u128));
@@ -355,10 +375,7 @@ impl CubeReader {
                 ),
             ));
         }
-        self.remaining = total as usize;
-        // Until a value is read, "where the file ends" is the last header line.
-        self.tok_line = self.line - 1;
-        Ok(())
+        Ok(total as usize)
     }
 
     /// The orbital-index line `N i1 … iN`; it may wrap, but must end after the N-th
@@ -603,238 +620,5 @@ fn scan_values(buf: &[u8], out: &mut [f64], line: &mut usize) -> Scan {
         last_line,
         needs_slow_path: false,
         bad: None,
-    }
-}
-
-#[inline]
-fn is_space(b: u8) -> bool {
-    matches!(b, b' ' | b'\n' | b'\r' | b'\t' | 0x0b | 0x0c)
-}
-
-fn parse_int(s: &[u8]) -> Option<i64> {
-    std::str::from_utf8(s).ok()?.parse().ok()
-}
-
-/// Powers of ten exactly representable in a double.
-const EXACT_POW10: [f64; 23] = [
-    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
-    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
-];
-
-/// Parses a finite number in decimal or exponent form (`E`, `e`, `D`, `d`).
-/// Short mantissas with small exponents take the exact fast path (an integer below
-/// 2^53 times or divided by an exact power of ten is correctly rounded, Clinger 1990);
-/// everything else goes through the standard library's correctly rounded parser.
-#[inline]
-pub fn parse_finite(s: &[u8]) -> std::result::Result<f64, String> {
-    match fast_parse(s) {
-        Some(v) => Ok(v),
-        None => parse_slow(s),
-    }
-}
-
-/// The general case: `D` exponents rewritten, the exponent letter put back into the
-/// Fortran form (`3.86160-106`, `1.0+100`: a sign straight after the mantissa's last
-/// digit), then the standard parser.
-#[cold]
-#[inline(never)]
-fn parse_slow(s: &[u8]) -> std::result::Result<f64, String> {
-    if s.len() > MAX_TOKEN {
-        return Err("an entry is too long to be a number".into());
-    }
-    // Each input byte becomes at most two (a Fortran sign gains its letter).
-    let mut owned = [0u8; 2 * MAX_TOKEN];
-    let mut n = 0;
-    let has_letter = s.iter().any(|b| matches!(b, b'E' | b'e' | b'D' | b'd'));
-    for (i, &b) in s.iter().enumerate() {
-        let fortran_sign = !has_letter
-            && matches!(b, b'+' | b'-')
-            && i > 0
-            && (s[i - 1].is_ascii_digit() || s[i - 1] == b'.')
-            && s.get(i + 1).is_some_and(u8::is_ascii_digit);
-        if fortran_sign {
-            owned[n] = b'E';
-            n += 1;
-        }
-        owned[n] = if b == b'D' || b == b'd' { b'E' } else { b };
-        n += 1;
-    }
-    let text = std::str::from_utf8(&owned[..n]).unwrap_or("");
-    // The standard parser also takes "inf", "NaN" and "infinity": refuse those here,
-    // and anything that is not plainly a number.
-    let plain = !text.is_empty()
-        && text
-            .bytes()
-            .all(|b| b.is_ascii_digit() || matches!(b, b'+' | b'-' | b'.' | b'E' | b'e'));
-    let shown = || String::from_utf8_lossy(s).into_owned();
-    if !plain {
-        return Err(if text.parse::<f64>().is_ok() {
-            format!("'{}' is not a finite number", shown())
-        } else {
-            format!("'{}' is not a number", shown())
-        });
-    }
-    match text.parse::<f64>() {
-        Ok(v) if v.is_finite() => Ok(v),
-        Ok(_) => Err(format!("'{}' is too large for a double", shown())),
-        Err(_) => Err(format!("'{}' is not a number", shown())),
-    }
-}
-
-#[inline]
-fn fast_parse(s: &[u8]) -> Option<f64> {
-    let mut i = 0;
-    let neg = match s.first()? {
-        b'-' => {
-            i += 1;
-            true
-        }
-        b'+' => {
-            i += 1;
-            false
-        }
-        _ => false,
-    };
-    let mut mant: u64 = 0;
-    let mut digits = 0u32;
-    let mut scale: i32 = 0;
-    let mut any = false;
-    while i < s.len() && s[i].is_ascii_digit() {
-        mant = mant.wrapping_mul(10).wrapping_add((s[i] - b'0') as u64);
-        digits += (mant != 0) as u32;
-        any = true;
-        i += 1;
-    }
-    if i < s.len() && s[i] == b'.' {
-        i += 1;
-        while i < s.len() && s[i].is_ascii_digit() {
-            mant = mant.wrapping_mul(10).wrapping_add((s[i] - b'0') as u64);
-            digits += (mant != 0) as u32;
-            scale -= 1;
-            any = true;
-            i += 1;
-        }
-    }
-    if !any || digits > 15 {
-        return None;
-    }
-    if i < s.len() {
-        // A letter, or the Fortran form's bare sign (`3.86160-106`).
-        if matches!(s[i], b'E' | b'e' | b'D' | b'd') {
-            i += 1;
-        } else if !matches!(s[i], b'+' | b'-') {
-            return None;
-        }
-        let eneg = match s.get(i)? {
-            b'-' => {
-                i += 1;
-                true
-            }
-            b'+' => {
-                i += 1;
-                false
-            }
-            _ => false,
-        };
-        let mut e: i32 = 0;
-        let start = i;
-        while i < s.len() && s[i].is_ascii_digit() && i - start < 6 {
-            e = e * 10 + (s[i] - b'0') as i32;
-            i += 1;
-        }
-        if i == start || i != s.len() {
-            return None;
-        }
-        scale += if eneg { -e } else { e };
-    }
-    let m = mant as f64;
-    let v = if m == 0.0 {
-        0.0
-    } else if (0..=22).contains(&scale) {
-        m * EXACT_POW10[scale as usize]
-    } else if (-22..0).contains(&scale) {
-        m / EXACT_POW10[(-scale) as usize]
-    } else {
-        return None;
-    };
-    Some(if neg { -v } else { v })
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    /// The reference is the standard library's correctly rounded parser.
-    #[test]
-    fn fast_path_matches_the_standard_parser() {
-        for s in [
-            "1.23450E-05",
-            "-9.99999E+99",
-            "0.00000E+00",
-            "-0.0",
-            "12",
-            "1e22",
-            "3.5e-22",
-            "123456789012345",
-            "4.94066E-324",
-            "1.7976931348623157e308",
-            "0.1",
-            "+2.5E+00",
-        ] {
-            let ours = parse_finite(s.as_bytes()).unwrap();
-            assert_eq!(ours.to_bits(), s.parse::<f64>().unwrap().to_bits(), "{s}");
-        }
-        assert_eq!(parse_finite(b"1.5D-03").unwrap(), 1.5e-3);
-        assert_eq!(parse_finite(b"-2.25d+01").unwrap(), -22.5);
-    }
-
-    /// Issue 10, item 17: Fortran writes a three-digit exponent without its letter
-    /// (the E format drops it when the exponent needs three digits; common practice
-    /// of Fortran E editing). The reference is the standard parser on the same number
-    /// written with its `E`.
-    #[test]
-    fn fortran_exponents_without_a_letter() {
-        for (fortran, with_e) in [
-            ("3.86160-106", "3.86160E-106"),
-            ("-3.86160-106", "-3.86160E-106"),
-            ("1.0+100", "1.0E+100"),
-            ("2.5-3", "2.5E-3"),
-            ("-7.-5", "-7.E-5"),
-            ("1.79769+308", "1.79769E+308"),
-            ("4.94066-324", "4.94066E-324"),
-        ] {
-            let ours = parse_finite(fortran.as_bytes()).unwrap();
-            assert_eq!(
-                ours.to_bits(),
-                with_e.parse::<f64>().unwrap().to_bits(),
-                "{fortran}"
-            );
-        }
-        for bad in [
-            "1.0-", "1.0+-5", "1-2-3", "1e5-3", "-+1", "1.0+1e2", "1.0 -5", "+",
-        ] {
-            assert!(parse_finite(bad.as_bytes()).is_err(), "{bad}");
-        }
-    }
-
-    #[test]
-    fn refuses_what_is_not_a_finite_number() {
-        for s in [
-            "NaN", "nan", "inf", "-Inf", "Infinity", "1e999", "abc", "1.0.0", "1e", "--1", "",
-            "1,5", "0x10",
-        ] {
-            assert!(parse_finite(s.as_bytes()).is_err(), "{s}");
-        }
-    }
-
-    /// Regression: a 64-byte token with many Fortran signs once overflowed the
-    /// rewrite buffer (a byte-mutation case, CI run of an earlier submission).
-    #[test]
-    fn longest_token_with_many_fortran_signs_is_an_error_not_a_panic() {
-        let token = "1-".repeat(MAX_TOKEN / 2);
-        assert_eq!(token.len(), MAX_TOKEN);
-        assert!(parse_finite(token.as_bytes()).is_err());
-        let one_sign = format!("{}-1", "1".repeat(MAX_TOKEN - 2));
-        assert!(parse_finite(one_sign.as_bytes()).is_ok());
     }
 }
