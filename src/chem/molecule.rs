@@ -165,6 +165,26 @@ impl Molecule {
     }
 }
 
+impl Molecule {
+    /// A molecule from element symbols and positions (bohr), for tests and
+    /// examples written in code.
+    pub fn from_symbols(atoms: &[(&str, [f64; 3])], charge: i32) -> Result<Molecule> {
+        let atoms = atoms
+            .iter()
+            .map(|(s, p)| {
+                let element = crate::chem::elements::by_symbol(s).ok_or_else(|| {
+                    crate::error::Error::input(crate::chem::elements::unknown_symbol(s))
+                })?;
+                Ok(Atom {
+                    element,
+                    position: *p,
+                })
+            })
+            .collect::<Result<Vec<_>>>()?;
+        Molecule::new(atoms, charge)
+    }
+}
+
 pub fn distance(a: [f64; 3], b: [f64; 3]) -> f64 {
     (nalgebra::Vector3::from(a) - nalgebra::Vector3::from(b)).norm()
 }
@@ -234,14 +254,7 @@ mod tests {
     use crate::chem::elements::by_symbol;
 
     fn molecule(atoms: &[(&str, [f64; 3])]) -> Molecule {
-        let atoms = atoms
-            .iter()
-            .map(|(s, p)| Atom {
-                element: by_symbol(s).unwrap(),
-                position: *p,
-            })
-            .collect();
-        Molecule::new(atoms, 0).unwrap()
+        Molecule::from_symbols(atoms, 0).unwrap()
     }
 
     /// The Hill system (E. A. Hill, J. Am. Chem. Soc. 22, 478 (1900); citation from

@@ -173,16 +173,7 @@ mod tests {
     /// contract (common practice), checked over many N and box shapes.
     #[test]
     fn points_gives_exactly_n_on_the_longest_edge() {
-        let mol = |atoms: &[(&str, [f64; 3])]| {
-            let atoms = atoms
-                .iter()
-                .map(|(s, p)| Atom {
-                    element: by_symbol(s).unwrap(),
-                    position: *p,
-                })
-                .collect();
-            Molecule::new(atoms, 0).unwrap()
-        };
+        let mol = |atoms: &[(&str, [f64; 3])]| Molecule::from_symbols(atoms, 0).unwrap();
         for (coords, pad) in [("H2", 5.0), ("H2O", 3.0), ("CO", 0.5)] {
             let m = match coords {
                 "H2" => mol(&[("H", [0.0, 0.0, 0.0]), ("H", [0.0, 0.0, 1.4])]),

@@ -21,6 +21,22 @@ pub struct Eigen {
 
 /// Solves H C = S C ε. Each vector's sign is fixed so that its largest coefficient is
 /// positive (the first of equal ones), which makes output reproducible.
+impl Eigen {
+    /// The orbitals: each eigenvalue with its occupation and coefficient column.
+    pub fn orbitals(&self, occupations: &[f64]) -> Vec<super::Orbital> {
+        self.values
+            .iter()
+            .zip(occupations)
+            .enumerate()
+            .map(|(i, (&energy, &occupation))| super::Orbital {
+                energy,
+                occupation,
+                coefficients: self.vectors.column(i).iter().copied().collect(),
+            })
+            .collect()
+    }
+}
+
 pub fn generalized_symmetric(h: &DMatrix<f64>, s: &DMatrix<f64>, threshold: f64) -> Result<Eigen> {
     let n = s.nrows();
     if n == 0 || s.ncols() != n || h.shape() != s.shape() {

@@ -11,7 +11,7 @@ use super::MethodKind;
 use super::degenerate::{canonicalise, sharing_notes, tolerance};
 use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
 use super::huckel_params::{HuckelOptions, OffDiagonal, valence_basis};
-use super::orbitals::{Caveat, Orbital, OrbitalSet, aufbau};
+use super::orbitals::{Caveat, OrbitalSet, aufbau};
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
 use crate::integrals::slater_overlap_matrix;
@@ -65,17 +65,7 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
     let eigen = generalized_symmetric(&h, &s, DEPENDENCE_THRESHOLD)?;
     let tol = tolerance(true);
     let (occupations, _) = aufbau(&eigen.values, electrons, tol);
-    let orbitals = eigen
-        .values
-        .iter()
-        .zip(&occupations)
-        .enumerate()
-        .map(|(i, (&energy, &occupation))| Orbital {
-            energy,
-            occupation,
-            coefficients: eigen.vectors.column(i).iter().copied().collect(),
-        })
-        .collect();
+    let orbitals = eigen.orbitals(&occupations);
     let mut notes = Vec::new();
     if eigen.dropped > 0 {
         notes.push(format!(

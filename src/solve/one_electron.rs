@@ -3,7 +3,7 @@
 use super::MethodKind;
 use super::degenerate::{canonicalise, sharing_notes, tolerance};
 use super::eigen::{DEPENDENCE_THRESHOLD, generalized_symmetric};
-use super::orbitals::{Caveat, Orbital, OrbitalSet, aufbau};
+use super::orbitals::{Caveat, OrbitalSet, aufbau};
 use crate::basis::Basis;
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
@@ -36,17 +36,7 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
     )?;
     let tol = tolerance(false);
     let (occupations, _) = aufbau(&eigen.values, electrons as f64, tol);
-    let orbitals = eigen
-        .values
-        .iter()
-        .zip(&occupations)
-        .enumerate()
-        .map(|(i, (&energy, &occupation))| Orbital {
-            energy,
-            occupation,
-            coefficients: eigen.vectors.column(i).iter().copied().collect(),
-        })
-        .collect();
+    let orbitals = eigen.orbitals(&occupations);
     let caveats = if basis.kind().is_minimal() {
         vec![Caveat::MinimalBasis]
     } else {

@@ -80,20 +80,26 @@ fn parse_slow(s: &[u8]) -> std::result::Result<f64, String> {
     }
 }
 
+/// An optional sign at `s[*i]`, stepped over; true for minus.
 #[inline]
-fn fast_parse(s: &[u8]) -> Option<f64> {
-    let mut i = 0;
-    let neg = match s.first()? {
-        b'-' => {
-            i += 1;
+fn sign(s: &[u8], i: &mut usize) -> bool {
+    match s.get(*i) {
+        Some(b'-') => {
+            *i += 1;
             true
         }
-        b'+' => {
-            i += 1;
+        Some(b'+') => {
+            *i += 1;
             false
         }
         _ => false,
-    };
+    }
+}
+
+#[inline]
+fn fast_parse(s: &[u8]) -> Option<f64> {
+    let mut i = 0;
+    let neg = sign(s, &mut i);
     let mut mant: u64 = 0;
     let mut digits = 0u32;
     let mut scale: i32 = 0;
@@ -124,17 +130,8 @@ fn fast_parse(s: &[u8]) -> Option<f64> {
         } else if !matches!(s[i], b'+' | b'-') {
             return None;
         }
-        let eneg = match s.get(i)? {
-            b'-' => {
-                i += 1;
-                true
-            }
-            b'+' => {
-                i += 1;
-                false
-            }
-            _ => false,
-        };
+        s.get(i)?;
+        let eneg = sign(s, &mut i);
         let mut e: i32 = 0;
         let start = i;
         while i < s.len() && s[i].is_ascii_digit() && i - start < 6 {
