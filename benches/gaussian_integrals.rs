@@ -72,12 +72,12 @@ fn pairs(
 
 #[divan::bench(args = SETS)]
 fn overlap(bencher: Bencher, set: &str) {
-    pairs(bencher, set, |a, b| overlap_block(a, b));
+    pairs(bencher, set, overlap_block);
 }
 
 #[divan::bench(args = SETS)]
 fn kinetic(bencher: Bencher, set: &str) {
-    pairs(bencher, set, |a, b| kinetic_block(a, b));
+    pairs(bencher, set, kinetic_block);
 }
 
 #[divan::bench(args = SETS)]
