@@ -1,89 +1,89 @@
-//! Benchmark of reading cube files (run with `cargo bench --bench cube_inspect`):
-//! `inspect`'s work on a 200³ single-field cube — one streaming pass of parsing
-//! alone, and the full statistics with the enclosed-fraction isovalue (two passes) —
-//! as medians of 5 runs, in MB of text per second. Peak memory is measured outside,
-//! with `/usr/bin/time -v lobecast inspect FILE` (see DEVELOPERS.md).
+//! Reading cube files (`cargo bench --bench cube_inspect`): `inspect`'s work on a
+//! 200³ single-field cube of a hydrogen-like 1s density.
+//!
+//! What to compare in divan's table (medians, throughput in MB of text per second):
+//! `parse_only` (one streaming pass of parsing) with `inspect` (the full statistics
+//! and the 90 % enclosed-fraction isovalue, two passes). Peak memory is measured
+//! outside, with `/usr/bin/time -v lobecast inspect FILE` (see DEVELOPERS.md).
 
 use std::io::BufWriter;
-use std::time::Instant;
+use std::path::PathBuf;
+use std::sync::OnceLock;
 
-use lobecast::grid::GridBox;
+use divan::Bencher;
+use divan::counter::BytesCount;
+use lobecast::grid::{GridBox, Slab};
 use lobecast::io::cube::stats::summarize;
 use lobecast::io::cube::{CubeAtom, CubeHeader, CubeReader, write_streaming};
 
-fn median(mut v: Vec<f64>) -> f64 {
-    v.sort_by(f64::total_cmp);
-    v[v.len() / 2]
-}
-
-fn time<F: FnMut()>(runs: usize, mut f: F) -> f64 {
-    median(
-        (0..runs)
-            .map(|_| {
-                let t = Instant::now();
-                f();
-                t.elapsed().as_secs_f64()
-            })
-            .collect(),
-    )
-}
+/// The temporary directory of the cube, written on first use, removed by `main`.
+static DIR: OnceLock<tempfile::TempDir> = OnceLock::new();
 
 fn main() {
-    let h = 12.0 / 199.0;
-    let header = CubeHeader {
-        title: "bench".into(),
-        comment: "a hydrogen-like 1s density".into(),
-        atoms: vec![CubeAtom {
-            atomic_number: 1,
-            charge: 1.0,
-            position: [0.0; 3],
-        }],
-        grid: GridBox {
-            origin: [-6.0; 3],
-            axes: [[h, 0.0, 0.0], [0.0, h, 0.0], [0.0, 0.0, h]],
-            counts: [200; 3],
-        },
-        orbital_numbers: None,
-    };
-    let dir = tempfile::tempdir().unwrap();
-    let path = dir.path().join("bench.cube");
-    {
-        let mut w = BufWriter::with_capacity(1 << 20, std::fs::File::create(&path).unwrap());
-        let eval = |s: &lobecast::grid::Slab, v: &mut [f64]| {
-            let p = s.points;
-            for (x, y) in p.iter().zip(v) {
+    divan::main();
+    if let Some(dir) = DIR.get() {
+        std::fs::remove_dir_all(dir.path()).ok();
+    }
+}
+
+/// The 200³ cube (written on first use) and its size in bytes.
+fn cube() -> (PathBuf, u64) {
+    let path = DIR
+        .get_or_init(|| tempfile::tempdir().unwrap())
+        .path()
+        .join("bench.cube");
+    if !path.exists() {
+        let h = 12.0 / 199.0;
+        let header = CubeHeader {
+            title: "bench".into(),
+            comment: "a hydrogen-like 1s density".into(),
+            atoms: vec![CubeAtom {
+                atomic_number: 1,
+                charge: 1.0,
+                position: [0.0; 3],
+            }],
+            grid: GridBox {
+                origin: [-6.0; 3],
+                axes: [[h, 0.0, 0.0], [0.0, h, 0.0], [0.0, 0.0, h]],
+                counts: [200; 3],
+            },
+            orbital_numbers: None,
+        };
+        let density = |s: &Slab, v: &mut [f64]| {
+            for (x, y) in s.points.iter().zip(v) {
                 let r = (x[0] * x[0] + x[1] * x[1] + x[2] * x[2]).sqrt();
                 *y = (-2.0 * r).exp() / std::f64::consts::PI;
             }
         };
-        write_streaming(&header, eval, &mut w, &|_| {}).unwrap();
+        let mut w = BufWriter::with_capacity(1 << 20, std::fs::File::create(&path).unwrap());
+        write_streaming(&header, density, &mut w, &|_| {}).unwrap();
     }
-    let mb = std::fs::metadata(&path).unwrap().len() as f64 / 1e6;
-    println!("cube 200×200×200, one field: {mb:.1} MB of text");
+    let bytes = std::fs::metadata(&path).unwrap().len();
+    (path, bytes)
+}
 
-    let parse = time(5, || {
+#[divan::bench(sample_count = 5, sample_size = 1)]
+fn parse_only(bencher: Bencher) {
+    let (path, bytes) = cube();
+    let mut buf = vec![0.0; 65_536];
+    bencher.counter(BytesCount::new(bytes)).bench_local(|| {
         let mut r = CubeReader::open(&path).unwrap();
-        let mut buf = vec![0.0; 65_536];
-        let mut s = 0.0;
+        let mut sum = 0.0;
         loop {
             let n = r.read_values(&mut buf).unwrap();
             if n == 0 {
-                break;
+                return sum;
             }
-            s += buf[..n].iter().sum::<f64>();
+            sum += buf[..n].iter().sum::<f64>();
         }
-        std::hint::black_box(s);
     });
-    println!(
-        "one pass, parsing only: median {parse:.3} s, {:.0} MB/s",
-        mb / parse
-    );
+}
+
+#[divan::bench(sample_count = 5, sample_size = 1)]
+fn inspect(bencher: Bencher) {
+    let (path, bytes) = cube();
     let open = || CubeReader::open(&path);
-    let full = time(5, || {
-        std::hint::black_box(summarize(&open, 0.9, None).unwrap());
-    });
-    println!(
-        "inspect (statistics + 90 % isovalue, two passes): median {full:.3} s, {:.0} MB/s of file",
-        mb / full
-    );
+    bencher
+        .counter(BytesCount::new(bytes))
+        .bench_local(|| summarize(&open, 0.9, None).unwrap());
 }

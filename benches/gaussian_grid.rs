@@ -1,13 +1,21 @@
-//! Benchmark (run with `cargo bench --bench gaussian_grid`): one orbital of 36
-//! contracted Gaussian functions (benzene in STO-3G) on a 128³ grid, separable
-//! lattice evaluation against direct point-by-point evaluation, on one and on all
-//! threads. Prints medians; quote ratios, the machine is shared.
+//! One orbital of 36 contracted Gaussian functions (benzene in STO-3G) on a 128³
+//! grid, on one thread and on all of rayon's threads
+//! (`cargo bench --bench gaussian_grid`).
+//!
+//! What to compare in divan's table (medians; the machine is shared, quote ratios):
+//! * `direct` with `separable` at the same thread count: the speed-up of the
+//!   separable lattice evaluation over point-by-point evaluation;
+//! * each at 1 thread with itself at 2 (or all) threads: the parallel scaling.
+//!
+//! The throughput column counts point·functions (grid points × 36).
 
 use std::path::Path;
-use std::time::Instant;
+use std::sync::LazyLock;
 
+use divan::Bencher;
+use divan::counter::ItemsCount;
 use lobecast::field::{Field, FieldSampler};
-use lobecast::grid::{GridBox, stream_slabs};
+use lobecast::grid::{GridBox, Slab, stream_slabs};
 use lobecast::solve::{Orbital, OrbitalSet};
 
 /// Benzene, D6h, r(C–C) = 1.3915 Å and r(C–H) = 1.0800 Å (semi-experimental
@@ -15,56 +23,26 @@ use lobecast::solve::{Orbital, OrbitalSet};
 /// (2000); from memory). Geometry only: the orbital coefficients are arbitrary, since
 /// only the speed is measured.
 fn benzene() -> String {
-    let mut atoms = Vec::new();
-    for k in 0..6 {
-        let a = std::f64::consts::PI / 3.0 * k as f64;
-        atoms.push(format!(
-            "{{ element = \"C\", position = [{}, {}, 0.0] }}",
-            1.3915 * a.cos(),
-            1.3915 * a.sin()
-        ));
-        atoms.push(format!(
-            "{{ element = \"H\", position = [{}, {}, 0.0] }}",
-            2.4715 * a.cos(),
-            2.4715 * a.sin()
-        ));
-    }
+    let atoms: Vec<String> = (0..6)
+        .flat_map(|k| {
+            let a = std::f64::consts::PI / 3.0 * k as f64;
+            [("C", 1.3915), ("H", 2.4715)].map(|(el, r)| {
+                format!(
+                    "{{ element = \"{el}\", position = [{}, {}, 0.0] }}",
+                    r * a.cos(),
+                    r * a.sin()
+                )
+            })
+        })
+        .collect();
     format!(
         "[molecule]\natoms = [{}]\n[basis]\nset = \"sto-3g\"\n",
         atoms.join(", ")
     )
 }
 
-fn median(mut v: Vec<f64>) -> f64 {
-    v.sort_by(f64::total_cmp);
-    v[v.len() / 2]
-}
-
-fn run(grid: &GridBox, eval: &(dyn Fn(&lobecast::grid::Slab, &mut [f64]) + Sync)) -> f64 {
-    median(
-        (0..3)
-            .map(|_| {
-                let t = Instant::now();
-                let mut sum = 0.0;
-                stream_slabs(
-                    grid,
-                    1,
-                    eval,
-                    |v| v.iter().sum::<f64>(),
-                    |s| {
-                        sum += s;
-                        Ok(())
-                    },
-                )
-                .unwrap();
-                std::hint::black_box(sum);
-                t.elapsed().as_secs_f64()
-            })
-            .collect(),
-    )
-}
-
-fn main() {
+/// The sampler of one orbital with arbitrary coefficients, and its function count.
+static SAMPLER: LazyLock<(FieldSampler, usize)> = LazyLock::new(|| {
     let model = lobecast::io::model::parse(&benzene(), Path::new("benzene.toml")).unwrap();
     let basis = model
         .basis()
@@ -87,35 +65,58 @@ fn main() {
         degeneracy: lobecast::solve::degenerate::tolerance(false),
         notes: vec![],
     };
-    let sampler = FieldSampler::new(&set, &[Field::parse("orbital:1").unwrap()]).unwrap();
-    // A 128³ box, 16 bohr on a side, around the ring.
+    let fields = [Field::parse("orbital:1").unwrap()];
+    (FieldSampler::new(&set, &fields).unwrap(), nbf)
+});
+
+fn main() {
+    divan::main();
+}
+
+/// A 128³ box, 16 bohr on a side, around the ring.
+fn grid() -> GridBox {
     let h = 16.0 / 127.0;
-    let grid = GridBox {
+    GridBox {
         origin: [-8.0; 3],
         axes: [[h, 0.0, 0.0], [0.0, h, 0.0], [0.0, 0.0, h]],
         counts: [128; 3],
-    };
-    let n = grid.point_count() as f64;
-    println!(
-        "benzene STO-3G: {nbf} functions, grid {:?} = {n} points",
-        grid.counts
-    );
-    for threads in [1, rayon::current_num_threads()] {
-        let pool = rayon::ThreadPoolBuilder::new()
-            .num_threads(threads)
-            .build()
-            .unwrap();
-        let (sep, direct) = pool.install(|| {
-            (
-                run(&grid, &|s, v| sampler.evaluate_slab(s, v)),
-                run(&grid, &|s, v| sampler.evaluate(s.points, v)),
-            )
-        });
-        println!(
-            "{threads} thread(s): separable {sep:.3} s ({:.0} M point·functions/s), direct {direct:.3} s ({:.0} M point·functions/s), ratio {:.1}×",
-            n * nbf as f64 / sep / 1e6,
-            n * nbf as f64 / direct / 1e6,
-            direct / sep
-        );
     }
+}
+
+/// 1 and all of rayon's threads (2 on the CI machines).
+fn threads() -> Vec<usize> {
+    let all = rayon::current_num_threads();
+    if all > 1 { vec![1, all] } else { vec![1] }
+}
+
+/// Streams the grid through `eval` on a pool of `threads` threads and sums it.
+fn run(bencher: Bencher, threads: usize, eval: impl Fn(&Slab, &mut [f64]) + Sync) {
+    let grid = grid();
+    let pool = rayon::ThreadPoolBuilder::new()
+        .num_threads(threads)
+        .build()
+        .unwrap();
+    bencher
+        .counter(ItemsCount::new(grid.point_count() * SAMPLER.1))
+        .bench_local(|| {
+            pool.install(|| {
+                let mut sum = 0.0;
+                let add = |s| {
+                    sum += s;
+                    Ok(())
+                };
+                stream_slabs(&grid, 1, &eval, |v| v.iter().sum::<f64>(), add).unwrap();
+                sum
+            })
+        });
+}
+
+#[divan::bench(args = threads(), sample_count = 3, sample_size = 1)]
+fn separable(bencher: Bencher, threads: usize) {
+    run(bencher, threads, |s, v| SAMPLER.0.evaluate_slab(s, v));
+}
+
+#[divan::bench(args = threads(), sample_count = 3, sample_size = 1)]
+fn direct(bencher: Bencher, threads: usize) {
+    run(bencher, threads, |s, v| SAMPLER.0.evaluate(s.points, v));
 }

@@ -1,89 +1,87 @@
-//! Medians of the one-electron integral engine on one thread (run with `cargo bench`):
-//! every shell pair of a benzene-shaped, STO-3G-sized set (6 × {s, s, p} + 6 × s,
-//! 36 functions, 12 nuclei, three primitives per shell), and of a set of d and f
-//! shells. Exponents are representative, not a published basis.
+//! The one-electron integral engine on one thread (`cargo bench --bench
+//! gaussian_integrals`): overlap, kinetic and nuclear-attraction blocks of every shell
+//! pair of two sets, each time for the whole set:
+//! * `sp`: a benzene-shaped, STO-3G-sized set (6 × {s, s, p} + 6 × s, 36 functions,
+//!   12 nuclei, three primitives per shell);
+//! * `df`: a d and an f shell on each of the six carbons, the same 12 nuclei.
+//!
+//! Exponents are representative, not a published basis. Compare `overlap`, `kinetic`
+//! and `nuclear` of the same set in divan's table (medians).
 
-use std::hint::black_box;
-use std::time::Instant;
-
+use divan::Bencher;
 use lobecast::integrals::gaussian::{CartesianShell, kinetic_block, nuclear_block, overlap_block};
 
 const EXP: [f64; 3] = [3.0, 0.6, 0.17];
 const COEF: [f64; 3] = [0.15, 0.53, 0.44];
+const SETS: [&str; 2] = ["sp", "df"];
 
-fn median(mut v: Vec<f64>) -> f64 {
-    v.sort_by(f64::total_cmp);
-    v[v.len() / 2]
+fn ring(k: usize, r: f64) -> [f64; 3] {
+    let phi = k as f64 * std::f64::consts::PI / 3.0;
+    [r * phi.cos(), r * phi.sin(), 0.0]
 }
 
-fn time<F: FnMut()>(runs: usize, mut f: F) -> f64 {
-    median(
-        (0..runs)
-            .map(|_| {
-                let t = Instant::now();
-                f();
-                t.elapsed().as_secs_f64()
-            })
-            .collect(),
-    )
+/// Six carbons (at 2.64 bohr) and six hydrogens (at 4.69 bohr) on a ring.
+fn nuclei() -> Vec<(f64, [f64; 3])> {
+    let carbons = (0..6).map(|k| (6.0, ring(k, 2.64)));
+    carbons
+        .chain((0..6).map(|k| (1.0, ring(k, 4.69))))
+        .collect()
 }
 
-fn run(name: &str, shells: &[CartesianShell], nuclei: &[(f64, [f64; 3])]) {
-    let functions: usize = shells
-        .iter()
-        .map(|s| ((s.l + 1) * (s.l + 2) / 2) as usize)
-        .sum();
-    let pairs = shells.len() * (shells.len() + 1) / 2;
-    let each = |f: &dyn Fn(&CartesianShell, &CartesianShell) -> Vec<f64>| {
-        time(21, || {
-            for (i, a) in shells.iter().enumerate() {
-                for b in &shells[..=i] {
-                    black_box(f(a, b));
-                }
-            }
-        })
-    };
-    let s = each(&|a, b| overlap_block(a, b));
-    let t = each(&|a, b| kinetic_block(a, b));
-    let v = each(&|a, b| nuclear_block(a, b, nuclei));
-    println!(
-        "{name}: {functions} functions, {pairs} shell pairs, {} nuclei: overlap {:.3} ms, \
-         kinetic {:.3} ms, nuclear {:.3} ms (medians of 21)",
-        nuclei.len(),
-        s * 1e3,
-        t * 1e3,
-        v * 1e3
-    );
-}
-
-fn main() {
-    let ring = |k: usize, r: f64| {
-        let phi = k as f64 * std::f64::consts::PI / 3.0;
-        [r * phi.cos(), r * phi.sin(), 0.0]
-    };
-    let carbons: Vec<_> = (0..6).map(|k| ring(k, 2.64)).collect();
-    let hydrogens: Vec<_> = (0..6).map(|k| ring(k, 4.69)).collect();
-    let shell = |l, center| CartesianShell {
+/// The shells of the set `sp` or `df` (see the top of the file).
+fn shells(set: &str) -> Vec<CartesianShell<'static>> {
+    let shell = |l, (_, center): (f64, [f64; 3])| CartesianShell {
         l,
         center,
         exponents: &EXP,
         coefficients: &COEF,
     };
-    let mut shells = Vec::new();
-    for &c in &carbons {
-        shells.extend([shell(0, c), shell(0, c), shell(1, c)]);
+    let nuclei = nuclei();
+    let (carbons, hydrogens) = nuclei.split_at(6);
+    let ls: &[u32] = if set == "sp" { &[0, 0, 1] } else { &[2, 3] };
+    let on_carbons = carbons
+        .iter()
+        .flat_map(|&c| ls.iter().map(move |&l| shell(l, c)));
+    let on_hydrogens = hydrogens.iter().map(|&h| shell(0, h));
+    if set == "sp" {
+        on_carbons.chain(on_hydrogens).collect()
+    } else {
+        on_carbons.collect()
     }
-    shells.extend(hydrogens.iter().map(|&h| shell(0, h)));
-    let nuclei: Vec<_> = carbons
-        .iter()
-        .map(|&c| (6.0, c))
-        .chain(hydrogens.iter().map(|&h| (1.0, h)))
-        .collect();
-    run("benzene-sized s/p set", &shells, &nuclei);
+}
 
-    let heavy: Vec<_> = carbons
-        .iter()
-        .flat_map(|&c| [shell(2, c), shell(3, c)])
-        .collect();
-    run("d/f set on the ring", &heavy, &nuclei);
+fn main() {
+    divan::main();
+}
+
+/// Runs `block` over every shell pair (a, b ≤ a) of the named set.
+fn pairs(
+    bencher: Bencher,
+    set: &str,
+    block: impl Fn(&CartesianShell, &CartesianShell) -> Vec<f64>,
+) {
+    let shells = shells(set);
+    bencher.bench_local(|| {
+        for (i, a) in shells.iter().enumerate() {
+            for b in &shells[..=i] {
+                divan::black_box(block(a, b));
+            }
+        }
+    });
+}
+
+#[divan::bench(args = SETS)]
+fn overlap(bencher: Bencher, set: &str) {
+    pairs(bencher, set, overlap_block);
+}
+
+#[divan::bench(args = SETS)]
+fn kinetic(bencher: Bencher, set: &str) {
+    pairs(bencher, set, kinetic_block);
+}
+
+#[divan::bench(args = SETS)]
+fn nuclear(bencher: Bencher, set: &str) {
+    let nuclei = nuclei();
+    pairs(bencher, set, |a, b| nuclear_block(a, b, &nuclei));
 }

@@ -1,12 +1,19 @@
-//! Benchmarks printed as medians (run with `cargo bench`): grid evaluation of the
-//! two-centre model on a 200³ box, and cube writing against a plain buffered write of
-//! the same number of bytes. Shared machines are noisy, so ratios and medians are
-//! what to quote.
+//! Grid evaluation and cube writing of the two-centre model (H2⁺, Slater 1s) on a
+//! 200³ box (`cargo bench --bench grid_and_cube`).
+//!
+//! What to compare in divan's table (medians; the machine is shared, quote ratios):
+//! * `cube_write` (evaluate + format + write) with `plain_write`, a buffered write of
+//!   the same number of bytes: the throughput columns give the MB/s of each.
+//! * `cube_write` − `grid_evaluation` is the cost of formatting and writing beyond
+//!   evaluation; divided by `plain_write` it is the "× the plain write" figure.
+//! * `format_slab` (one thread, no I/O) against `plain_write`.
 
 use std::io::{BufWriter, Write};
 use std::path::Path;
-use std::time::Instant;
+use std::sync::LazyLock;
 
+use divan::Bencher;
+use divan::counter::{BytesCount, ItemsCount};
 use lobecast::field::{Field, FieldSampler};
 use lobecast::grid::{GridBox, stream_slabs};
 use lobecast::io::cube::writer::format_slab;
@@ -16,91 +23,81 @@ const MODEL: &str = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
     atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0, 0, 1] }]\n\
     [basis]\nset = \"slater-1s\"\n";
 
-fn median(mut v: Vec<f64>) -> f64 {
-    v.sort_by(f64::total_cmp);
-    v[v.len() / 2]
-}
-
-fn time<F: FnMut()>(runs: usize, mut f: F) -> f64 {
-    median(
-        (0..runs)
-            .map(|_| {
-                let t = Instant::now();
-                f();
-                t.elapsed().as_secs_f64()
-            })
-            .collect(),
-    )
-}
-
-fn main() {
+/// The first orbital's sampler and the cube header of a 200³ box of 12 bohr edges
+/// around the bond centre.
+static SETUP: LazyLock<(FieldSampler, CubeHeader)> = LazyLock::new(|| {
     let model = lobecast::io::model::parse(MODEL, Path::new("bench.toml")).unwrap();
     let set = model.solve().unwrap();
     let sampler = FieldSampler::new(&set, &[Field::parse("orbital:1").unwrap()]).unwrap();
-    // A 200³ box of 12 bohr edges around the bond centre.
     let h = 12.0 / 199.0;
-    let grid = GridBox {
-        origin: [-6.0; 3],
-        axes: [[h, 0.0, 0.0], [0.0, h, 0.0], [0.0, 0.0, h]],
-        counts: [200; 3],
-    };
-    let n = grid.point_count();
-    println!(
-        "grid {:?} = {n} points, {} threads",
-        grid.counts,
-        rayon::current_num_threads()
-    );
-
-    let eval = time(5, || {
-        let mut total = 0.0;
-        stream_slabs(
-            &grid,
-            1,
-            |s, v| sampler.evaluate_slab(s, v),
-            |v| v.iter().sum::<f64>(),
-            |s| {
-                total += s;
-                Ok(())
-            },
-        )
-        .unwrap();
-        std::hint::black_box(total);
-    });
-    println!(
-        "grid evaluation (two-centre orbital): median {eval:.3} s, {:.1} M points/s",
-        n as f64 / eval / 1e6
-    );
-
     let header = CubeHeader {
         title: "bench".into(),
         comment: "bench".into(),
-        atoms: set
-            .molecule
-            .atoms
-            .iter()
+        atoms: (set.molecule.atoms.iter())
             .map(|a| CubeAtom {
                 atomic_number: 1,
                 charge: 1.0,
                 position: a.position,
             })
             .collect(),
-        grid: grid.clone(),
+        grid: GridBox {
+            origin: [-6.0; 3],
+            axes: [[h, 0.0, 0.0], [0.0, h, 0.0], [0.0, 0.0, h]],
+            counts: [200; 3],
+        },
         orbital_numbers: None,
     };
-    let bytes = header.predicted_bytes() as usize;
+    (sampler, header)
+});
+
+fn main() {
+    divan::main();
+}
+
+#[divan::bench(sample_count = 5, sample_size = 1)]
+fn grid_evaluation(bencher: Bencher) {
+    let (sampler, header) = &*SETUP;
+    let grid = &header.grid;
+    bencher
+        .counter(ItemsCount::new(grid.point_count()))
+        .bench(|| {
+            let mut total = 0.0;
+            stream_slabs(
+                grid,
+                1,
+                |s, v| sampler.evaluate_slab(s, v),
+                |v| v.iter().sum::<f64>(),
+                |s| {
+                    total += s;
+                    Ok(())
+                },
+            )
+            .unwrap();
+            total
+        });
+}
+
+#[divan::bench(sample_count = 5, sample_size = 1)]
+fn cube_write(bencher: Bencher) {
+    let (sampler, header) = &*SETUP;
+    let bytes = header.predicted_bytes();
     let dir = tempfile::tempdir().unwrap();
     let path = dir.path().join("bench.cube");
-    let cube = time(5, || {
+    bencher.counter(BytesCount::new(bytes)).bench(|| {
         let mut w = BufWriter::with_capacity(1 << 20, std::fs::File::create(&path).unwrap());
-        write_streaming(&header, |s, v| sampler.evaluate_slab(s, v), &mut w, &|_| {}).unwrap();
+        write_streaming(header, |s, v| sampler.evaluate_slab(s, v), &mut w, &|_| {}).unwrap();
     });
-    assert_eq!(
-        std::fs::metadata(&path).unwrap().len() as usize,
-        bytes,
-        "predicted size"
-    );
+    let written = std::fs::metadata(&path).unwrap().len();
+    assert_eq!(written, bytes, "predicted size");
+}
+
+#[divan::bench(sample_count = 5, sample_size = 1)]
+fn plain_write(bencher: Bencher) {
+    let bytes = SETUP.1.predicted_bytes() as usize;
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("plain.bin");
     let line = [b'7'; 79];
-    let plain = time(5, || {
+    bencher.counter(BytesCount::new(bytes)).bench(|| {
         let mut w = BufWriter::with_capacity(1 << 20, std::fs::File::create(&path).unwrap());
         let mut left = bytes;
         while left > 0 {
@@ -110,30 +107,16 @@ fn main() {
         }
         w.flush().unwrap();
     });
-    let mb = bytes as f64 / 1e6;
-    println!(
-        "cube write (evaluate + format + write, {mb:.0} MB): median {cube:.3} s, {:.0} MB/s",
-        mb / cube
-    );
-    println!(
-        "plain buffered write of the same bytes: median {plain:.3} s, {:.0} MB/s",
-        mb / plain
-    );
+}
+
+#[divan::bench(sample_count = 5, sample_size = 1)]
+fn format_slab_one_thread(bencher: Bencher) {
+    let n = SETUP.1.grid.point_count();
     let values: Vec<f64> = (0..n).map(|i| ((i as f64) * 1e-3).sin() * 1e-3).collect();
-    let mut buf = Vec::with_capacity(bytes);
-    let fmt = time(5, || {
+    let mut buf = Vec::with_capacity(SETUP.1.predicted_bytes() as usize);
+    bencher.counter(ItemsCount::new(n)).bench_local(|| {
         buf.clear();
         format_slab(&values, 200, &mut buf).expect("finite values");
-        std::hint::black_box(&buf);
+        buf.len()
     });
-    println!(
-        "formatting alone, one thread: median {fmt:.3} s, {:.0} M values/s, {:.2} × the plain write",
-        n as f64 / fmt / 1e6,
-        fmt / plain
-    );
-    let format_only = cube - eval;
-    println!(
-        "formatting + writing beyond evaluation: {format_only:.3} s = {:.2} × the plain write",
-        format_only / plain
-    );
 }
