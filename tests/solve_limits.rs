@@ -132,3 +132,42 @@ fn a_five_thousand_primitive_shell_is_refused() {
         &["wide.toml"],
     );
 }
+
+/// Hardening item 7: 1000 functions of 100 primitives each (5 × 10⁹ primitive
+/// pairs, hours of integrals) are refused at once with the count, before any
+/// integral; the limit is 10⁹ pairs (src/solve/estimate.rs, measured there).
+#[test]
+fn a_basis_of_too_many_primitive_pairs_is_refused_at_once() {
+    let d = tempfile::tempdir().unwrap();
+    let prims: Vec<String> = (0..100)
+        .map(|k| format!("[{}, 1.0]", 0.1 * 1.07f64.powi(k)))
+        .collect();
+    let basis: Vec<String> = (0..1000)
+        .map(|i| {
+            format!(
+                r#"{{"atom": {}, "type": "gaussian", "powers": [0, 0, 0], "primitives": [{}]}}"#,
+                i % 2,
+                prims.join(", ")
+            )
+        })
+        .collect();
+    let mut coefficients = vec!["0.0"; 1000];
+    coefficients[0] = "1.0";
+    let doc = format!(
+        r#"{{"format": "lobecast-orbitals", "version": 1, "length_unit": "bohr", "energy_unit": "hartree",
+          "atoms": [{{"element": "H", "atomic_number": 1, "position": [0, 0, -0.7]}},
+                    {{"element": "H", "atomic_number": 1, "position": [0, 0, 0.7]}}],
+          "basis": [{}],
+          "orbitals": [{{"energy": -0.5, "occupation": 1.0, "coefficients": [{}]}}]}}"#,
+        basis.join(", "),
+        coefficients.join(", ")
+    );
+    write_file(d.path(), "wide.json", &doc);
+    let started = std::time::Instant::now();
+    let out = run(d.path(), &["solve", "wide.json"]);
+    assert_input_error(d.path(), &out, "5.00e9 pairs", &["wide.json"]);
+    assert!(
+        started.elapsed().as_secs() < 20,
+        "refused before any integral"
+    );
+}

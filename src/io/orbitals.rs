@@ -292,6 +292,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             nuclear
         ));
     }
+    crate::solve::estimate::check_primitive_pairs(&basis).map_err(|e| e.context(name))?;
     let overlap = overlap_for(&molecule, &basis);
     match &overlap {
         Some(s) => {
