@@ -140,7 +140,7 @@ fn negative_numbers_are_values_refused_with_a_reason_and_a_unit() {
         "slice",
         &h2(),
         &["--field", "density", "--plane", "xz", "--log", "-2"],
-        "--log takes 0 < decades ≤ 12, got -2",
+        "--log takes 0.1 to 12 decades, got -2",
     );
     let line = ["--field", "orbital:1", "--from", "atom:1", "--to", "atom:2"];
     refused(

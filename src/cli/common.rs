@@ -111,3 +111,14 @@ pub fn parse_count(name: &str, text: &str, min: u64, max: u64) -> Result<u64> {
     })?;
     Ok(value)
 }
+
+/// A number the user typed, shown back in a message: plain for ordinary
+/// magnitudes, in exponent form for huge or tiny ones (never 300 digits).
+pub fn shown(x: f64) -> String {
+    let a = x.abs();
+    if a != 0.0 && !(1e-4..1e6).contains(&a) {
+        format!("{x:e}")
+    } else {
+        format!("{x}")
+    }
+}

@@ -298,14 +298,16 @@ pub fn parse_length(name: &str, text: &str, default: LengthUnit) -> Result<f64> 
         })?;
     if v < 0.0 {
         return Err(Error::input(format!(
-            "{name} must be zero or positive, got {v} {}",
+            "{name} must be zero or positive, got {} {}",
+            super::common::shown(v),
             unit.symbol()
         )));
     }
     if unit.to_bohr(v) > LengthUnit::Angstrom.to_bohr(super::slice::MAX_EXTENT_ANGSTROM) {
         return Err(Error::input(format!(
-            "{name} must be at most {} Å, got {v} {}",
+            "{name} must be at most {} Å, got {} {}",
             super::slice::MAX_EXTENT_ANGSTROM,
+            super::common::shown(v),
             unit.symbol()
         )));
     }

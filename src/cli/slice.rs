@@ -33,6 +33,8 @@ pub const MAX_LEVELS: usize = 100;
 pub const MAX_PANELS: usize = 16;
 pub const MIN_SIZE: u64 = 200;
 pub const MAX_SIZE: u64 = 10_000;
+/// Fewest decades `--log` spans: below a tenth of a decade the scale is one colour.
+pub const MIN_DECADES: f64 = 0.1;
 
 #[derive(Debug, Args)]
 pub struct SliceArgs {
@@ -88,7 +90,7 @@ pub struct SliceArgs {
     #[arg(long)]
     pub scale: Option<String>,
     /// Logarithmic colours for non-negative fields, over this many decades below the
-    /// maximum (0 < DECADES ≤ 12)
+    /// maximum (0.1 to 12)
     #[arg(
         long,
         value_name = "DECADES",
@@ -163,10 +165,11 @@ pub fn run(args: SliceArgs) -> Result<()> {
         }
     };
     if let Some(d) = args.log
-        && !(d.is_finite() && d > 0.0 && d <= 12.0)
+        && !(d.is_finite() && (MIN_DECADES..=12.0).contains(&d))
     {
         return Err(Error::input(format!(
-            "--log takes 0 < decades ≤ 12, got {d}"
+            "--log takes {MIN_DECADES} to 12 decades, got {}",
+            super::common::shown(d)
         )));
     }
     let extent = args
@@ -440,12 +443,14 @@ fn parse_extent(text: &str, unit: LengthUnit) -> Result<(f64, f64)> {
     for x in &v {
         if *x <= 0.0 {
             return Err(Error::input(format!(
-                "--extent must be positive, got {x} {name}"
+                "--extent must be positive, got {} {name}",
+                super::common::shown(*x)
             )));
         }
         if unit.to_bohr(*x) > max_bohr {
             return Err(Error::input(format!(
-                "--extent must be at most {MAX_EXTENT_ANGSTROM} Å, got {x} {name}"
+                "--extent must be at most {MAX_EXTENT_ANGSTROM} Å, got {} {name}",
+                super::common::shown(*x)
             )));
         }
     }

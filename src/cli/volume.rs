@@ -139,14 +139,16 @@ fn check_lengths(args: &VolumeArgs) -> Result<()> {
     if let Some(h) = args.spacing {
         if !(h.is_finite() && h > 0.0) {
             return Err(Error::input(format!(
-                "--spacing must be a positive length, got {h} {unit}"
+                "--spacing must be a positive length, got {} {unit}",
+                super::common::shown(h)
             )));
         }
     }
     if let Some(p) = args.padding {
         if !(p.is_finite() && p >= 0.0) {
             return Err(Error::input(format!(
-                "--padding must be zero or a positive length, got {p} {unit}"
+                "--padding must be zero or a positive length, got {} {unit}",
+                super::common::shown(p)
             )));
         }
     }
