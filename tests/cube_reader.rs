@@ -312,6 +312,7 @@ fn absurd_counts_are_refused_before_allocating() {
         .replace("    2    0.5    0.0    0.0", "2000000000 0.5 0.0 0.0")
         .replace("    2    0.0    0.5    0.0", "2000000000 0.0 0.5 0.0");
     let e = CubeReader::new(Cursor::new(huge.into_bytes()), None, "x").unwrap_err();
+    assert_eq!(e.kind, lobecast::error::Kind::Input);
     assert!(e.message.contains("values"), "{}", e.message);
 }
 
@@ -521,6 +522,7 @@ fn values_across_buffer_boundaries() {
     let first = rest.split_whitespace().next().unwrap();
     let bad = format!("{head}{}{}", "1".repeat(100), &rest[first.len()..]);
     let e = read(bad.as_bytes()).unwrap_err();
+    assert_eq!(e.kind, lobecast::error::Kind::Input);
     assert!(
         e.message.contains("line 7: an entry is too long"),
         "{}",

@@ -196,6 +196,7 @@ fn element_without_parameters_is_named() {
         &HuckelOptions::default(),
     )
     .unwrap_err();
+    assert_eq!(e.kind, lobecast::error::Kind::Input);
     assert!(e.message.contains("Ne"), "{}", e.message);
     assert!(
         e.hint

@@ -111,6 +111,8 @@ fn malformed_files_name_the_field() {
     ];
     for (text, needle) in cases {
         let e = parse(&text, "bad.json").expect_err(needle);
+        // A malformed file is the user's to fix: exit status 2.
+        assert_eq!(e.kind, lobecast::error::Kind::Input, "{}", e.message);
         assert!(
             e.message.contains(needle) && e.message.starts_with("bad.json"),
             "{needle}: {}",

@@ -199,3 +199,44 @@ where
     )?;
     out.flush().map_err(io)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::error::Kind;
+
+    /// A writer that fails like a full disk.
+    struct Full;
+    impl Write for Full {
+        fn write(&mut self, _: &[u8]) -> std::io::Result<usize> {
+            Err(std::io::Error::new(
+                std::io::ErrorKind::StorageFull,
+                "no space left on device",
+            ))
+        }
+        fn flush(&mut self) -> std::io::Result<()> {
+            Ok(())
+        }
+    }
+
+    /// A failed write is the environment's fault (exit 1), with the OS reason kept
+    /// as the source, not the user's (exit 2).
+    #[test]
+    fn a_failed_write_is_an_environment_error_with_its_source() {
+        let header = CubeHeader {
+            title: "t".into(),
+            comment: "c".into(),
+            atoms: Vec::new(),
+            grid: GridBox {
+                origin: [0.0; 3],
+                axes: [[0.5, 0.0, 0.0], [0.0, 0.5, 0.0], [0.0, 0.0, 0.5]],
+                counts: [2, 2, 2],
+            },
+            orbital_numbers: None,
+        };
+        let e = write_streaming(&header, |_, v| v.fill(1.0), &mut Full, &|_| {}).unwrap_err();
+        assert_eq!(e.kind, Kind::Environment);
+        assert_eq!(e.kind.exit_status(), 1);
+        assert!(std::error::Error::source(&e).is_some());
+    }
+}
