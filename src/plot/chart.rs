@@ -2,7 +2,7 @@
 //! twin y axis linked linearly to the left one, series, markers and notes — and
 //! `draw`, which lays it out (`frame`) and paints it on the shared canvas.
 
-use tiny_skia::{FillRule, LineCap, LineJoin, Mask, PathBuilder, Rect, Stroke, StrokeDash};
+use tiny_skia::{FillRule, Mask, PathBuilder, Rect};
 
 use super::frame::{Frame, layout, marker_label_boxes};
 use super::size::*;
@@ -224,26 +224,11 @@ fn stroke_masked(
     dash: Option<[f32; 2]>,
     mask: &Option<Mask>,
 ) {
-    if pts.len() < 2 {
-        return;
-    }
-    let mut pb = PathBuilder::new();
-    pb.move_to(pts[0].0, pts[0].1);
-    for p in &pts[1..] {
-        pb.line_to(p.0, p.1);
-    }
-    let Some(path) = pb.finish() else { return };
-    let stroke = Stroke {
+    c.stroke_clipped(
+        pts,
         width,
-        line_cap: LineCap::Butt,
-        line_join: LineJoin::Round,
-        dash: dash.and_then(|d| StrokeDash::new(d.to_vec(), 0.0)),
-        ..Stroke::default()
-    };
-    let mut paint = tiny_skia::Paint::default();
-    paint.set_color_rgba8(colour.r, colour.g, colour.b, colour.a);
-    paint.anti_alias = true;
-    let t = tiny_skia::Transform::identity();
-    c.pixmap
-        .stroke_path(&path, &paint, &stroke, t, mask.as_ref());
+        colour,
+        dash.as_ref().map(|d| &d[..]),
+        mask.as_ref(),
+    );
 }

@@ -118,6 +118,18 @@ impl Canvas {
 
     /// Strokes a polyline; `dash` gives on/off lengths in pixels.
     pub fn stroke(&mut self, points: &[(f32, f32)], width: f32, c: Colour, dash: Option<&[f32]>) {
+        self.stroke_clipped(points, width, c, dash, None);
+    }
+
+    /// `stroke`, drawn only where `mask` lets it (a chart's plot area).
+    pub fn stroke_clipped(
+        &mut self,
+        points: &[(f32, f32)],
+        width: f32,
+        c: Colour,
+        dash: Option<&[f32]>,
+        mask: Option<&tiny_skia::Mask>,
+    ) {
         if points.len() < 2 {
             return;
         }
@@ -135,7 +147,7 @@ impl Canvas {
             ..Stroke::default()
         };
         self.pixmap
-            .stroke_path(&path, &paint(c), &stroke, Transform::identity(), None);
+            .stroke_path(&path, &paint(c), &stroke, Transform::identity(), mask);
     }
 
     pub fn stroke_rect(&mut self, x: f32, y: f32, w: f32, h: f32, width: f32, c: Colour) {
