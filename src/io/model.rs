@@ -1,5 +1,7 @@
-//! The model file (TOML): which molecule, which basis, which method. Reading it
-//! yields plain data; nothing here solves or evaluates.
+//! The model file: which molecule, which basis, which method. The syntax is TOML
+//! (Tom's Obvious Minimal Language, specification v1.0.0, toml.io), read by the
+//! `toml` crate; the keys are ours and documented in the README ("The model file").
+//! Reading it yields plain data; nothing here solves or evaluates.
 //!
 //! ```toml
 //! [molecule]

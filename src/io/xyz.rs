@@ -1,4 +1,5 @@
-//! Reader for the common plain-text XYZ layout: atom count, a comment line, then one
+//! Reader for the common plain-text XYZ layout (no formal specification exists; this
+//! is the layout molecular tools have shared for decades): atom count, a comment line, then one
 //! `symbol x y z` line per atom in ångström. Extra columns and tabs are tolerated;
 //! only the first frame of a multi-frame file is used, but every frame is read
 //! strictly: after a frame's atoms the next non-blank line must be the count line of
