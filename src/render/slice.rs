@@ -304,20 +304,69 @@ pub fn render(
     style: &Style,
     sample: impl FnOnce(&PixelGrid) -> Vec<Vec<f64>>,
 ) -> Result<Rendered> {
-    let Layout {
-        grid,
-        cols,
-        rows,
-        width,
-        map_w,
-        cell_extra,
-        own_bars,
-    } = layout(fig, style)?;
-    let s = Sizes::new();
-    let n = fig.panels.len();
-    let (nx, ny) = (grid.nx, grid.ny);
-    let values = sample(&grid);
-    assert_eq!(values.len(), n, "one set of values per panel");
+    let layout = layout(fig, style)?;
+    let values = sample(&layout.grid);
+    assert_eq!(
+        values.len(),
+        fig.panels.len(),
+        "one set of values per panel"
+    );
+    let survey = survey(fig, &values);
+    let frame = Frame::new(fig, &layout, &survey);
+    let mut c = Canvas::new(frame.width as u32, frame.height, style.background);
+    let ctx = PanelContext {
+        fig,
+        style,
+        frame: &frame,
+        grid: &layout.grid,
+        shared: shared_mapping(fig, style, &values, &survey.blank),
+    };
+
+    let mut maps = Vec::new();
+    let mut bars = Vec::new();
+    let mut labels = Vec::new();
+    let mut levels_seen = Vec::new();
+    for (i, vals) in values.iter().enumerate() {
+        let drawn = draw_panel(&mut c, &ctx, i, vals, survey.blank[i]);
+        maps.push(drawn.map);
+        labels.push(drawn.labels);
+        if let Some(bar) = drawn.bar {
+            bars.push(bar);
+        } else if !survey.blank[i] {
+            levels_seen = drawn.levels;
+        }
+    }
+    if let Some(mapping) = ctx.shared {
+        bars.push(draw_shared_bar(&mut c, &ctx, mapping, &levels_seen));
+    }
+    draw_title_and_footnotes(&mut c, &frame);
+
+    let Survey { peaks, blank, .. } = survey;
+    Ok(Rendered {
+        canvas: c,
+        grid: layout.grid,
+        maps,
+        bars,
+        values,
+        peaks,
+        blank,
+        labels,
+    })
+}
+
+/// What the sampled values say before anything is drawn, since blank maps and
+/// missing samples change the footnotes and hence the figure's height.
+struct Survey {
+    /// The largest finite |value| of each map.
+    peaks: Vec<f64>,
+    /// Maps whose field is zero on the plane up to rounding.
+    blank: Vec<bool>,
+    /// Some sample has no value (NaN).
+    gaps: bool,
+}
+
+/// Finds each map's peak, which maps are blank and whether any sample is missing.
+fn survey(fig: &Figure, values: &[Vec<f64>]) -> Survey {
     let peaks: Vec<f64> = values
         .iter()
         .map(|v| {
@@ -333,179 +382,303 @@ pub fn render(
         .map(|(p, peak)| p.largest.is_some_and(|l| *peak <= ZERO_RATIO * l))
         .collect();
     let gaps = values.iter().flatten().any(|v| v.is_nan());
+    Survey { peaks, blank, gaps }
+}
 
-    let title_lines = fit_title(&fig.title, s.title, width - 2.0 * s.margin);
-    let head = if n > 1 { 1.6 * s.heading } else { 0.0 };
-    let top = s.margin + title_lines.len() as f32 * 1.3 * s.title + 10.0;
-    let row_h = head + ny as f32 + s.bottom;
+/// The figure's full geometry, the layout plus the title and footnote lines, so
+/// that every drawing step places things from one source.
+struct Frame {
+    s: Sizes,
+    cols: usize,
+    rows: usize,
+    width: f32,
+    map_w: f32,
+    cell_extra: f32,
+    own_bars: bool,
+    /// Room for the headings over the maps (none for a single map).
+    head: f32,
+    /// Top of the first row of maps (its headings included).
+    top: f32,
+    row_h: f32,
+    height: u32,
+    title_lines: Vec<String>,
+    foot_lines: Vec<String>,
+}
+
+impl Frame {
+    /// Completes `layout` with the title, footnotes and the figure's height.
+    fn new(fig: &Figure, layout: &Layout, survey: &Survey) -> Frame {
+        let s = Sizes::new();
+        let width = layout.width;
+        let title_lines = fit_title(&fig.title, s.title, width - 2.0 * s.margin);
+        let head = if fig.panels.len() > 1 {
+            1.6 * s.heading
+        } else {
+            0.0
+        };
+        let top = s.margin + title_lines.len() as f32 * 1.3 * s.title + 10.0;
+        let row_h = head + layout.grid.ny as f32 + s.bottom;
+        let foot_lines = footnote_lines(fig, survey, &s, width);
+        let foot_h = foot_lines.len() as f32 * 1.35 * s.foot;
+        let height = (top + layout.rows as f32 * row_h + foot_h + s.margin).ceil() as u32;
+        Frame {
+            s,
+            cols: layout.cols,
+            rows: layout.rows,
+            width,
+            map_w: layout.map_w,
+            cell_extra: layout.cell_extra,
+            own_bars: layout.own_bars,
+            head,
+            top,
+            row_h,
+            height,
+            title_lines,
+            foot_lines,
+        }
+    }
+
+    /// Left edge of the cell (axis room, map and bar) in column `col`.
+    fn cell_x(&self, col: usize) -> f32 {
+        self.s.margin + col as f32 * (self.cell_extra + self.map_w + self.s.gap)
+    }
+}
+
+/// The footnotes, with the notes on blank maps and missing samples, wrapped to the
+/// figure's width: needed before drawing because they set the height.
+fn footnote_lines(fig: &Figure, survey: &Survey, s: &Sizes, width: f32) -> Vec<String> {
     let mut notes = fig.footnotes.clone();
-    if blank.iter().any(|b| *b) {
+    if survey.blank.iter().any(|b| *b) {
         notes.push(format!(
             "Blank panels: the field is zero on this plane up to rounding (largest |value| on the map at most {ZERO_RATIO:e} of its largest |value| in space); they show the zero colour without contours or colour bar."
         ));
     }
-    if gaps {
+    if survey.gaps {
         notes.push(fig.gap_note.clone());
     }
-    let foot_lines: Vec<String> = notes
+    notes
         .iter()
         .flat_map(|f| text::wrap(f, s.foot, width - 2.0 * s.margin))
-        .collect();
-    let foot_h = foot_lines.len() as f32 * 1.35 * s.foot;
-    let height = (top + rows as f32 * row_h + foot_h + s.margin).ceil() as u32;
-    let mut c = Canvas::new(width as u32, height, style.background);
+        .collect()
+}
 
-    let scale_for = |p: &Panel| style.scale.unwrap_or_else(|| Scale::default_for(p.signed));
-    let log = |p: &Panel| if p.signed { None } else { style.log_decades };
-    let shared_mapping = style.shared_scale.then(|| {
+/// The colour scale of a panel: the one asked for, or the default for its sign.
+fn scale_for(style: &Style, p: &Panel) -> Scale {
+    style.scale.unwrap_or_else(|| Scale::default_for(p.signed))
+}
+
+/// The logarithmic span of a panel, which only non-negative fields may have.
+fn log_for(style: &Style, p: &Panel) -> Option<f64> {
+    if p.signed { None } else { style.log_decades }
+}
+
+/// One mapping over all non-blank maps when they share a scale, so that equal
+/// colours mean equal values across panels.
+fn shared_mapping(
+    fig: &Figure,
+    style: &Style,
+    values: &[Vec<f64>],
+    blank: &[bool],
+) -> Option<Mapping> {
+    style.shared_scale.then(|| {
         let all: Vec<f64> = values
             .iter()
-            .zip(&blank)
+            .zip(blank)
             .filter(|(_, b)| !**b)
             .flat_map(|(v, _)| v.iter().copied())
             .collect();
-        mapping_for(&all, fig.panels[0].signed, log(&fig.panels[0]))
-    });
+        mapping_for(&all, fig.panels[0].signed, log_for(style, &fig.panels[0]))
+    })
+}
 
-    let mut maps = Vec::new();
-    let mut bars = Vec::new();
-    let mut labels = Vec::new();
-    let mut levels_seen = Vec::new();
-    for (i, (panel, vals)) in fig.panels.iter().zip(&values).enumerate() {
-        let (col, row) = (i % cols, i / cols);
-        let cell_x = s.margin + col as f32 * (cell_extra + map_w + s.gap);
-        let mx = (cell_x + s.left).round();
-        let my = (top + row as f32 * row_h + head).round();
-        let scale = scale_for(panel);
-        let mapping = shared_mapping.unwrap_or_else(|| mapping_for(vals, panel.signed, log(panel)));
-        let zero = scale.at(mapping.t(0.0));
-        let pixels: Vec<[u8; 3]> = vals
-            .iter()
-            .enumerate()
-            .map(|(k, v)| {
-                let col = if v.is_nan() {
-                    hatch(k % nx, k / nx)
-                } else if blank[i] {
-                    zero
-                } else {
-                    scale.at(mapping.t(*v))
-                };
-                [col.r, col.g, col.b]
-            })
-            .collect();
-        c.put_pixels(mx as u32, my as u32, nx as u32, &pixels);
-        let levels = if blank[i] {
-            Vec::new()
-        } else {
-            levels_for(&style.contours, &mapping, panel.signed)
+/// What every panel is drawn against, so that drawing one takes few arguments.
+struct PanelContext<'a> {
+    fig: &'a Figure,
+    style: &'a Style,
+    frame: &'a Frame,
+    grid: &'a PixelGrid,
+    /// The common mapping when the maps share one colour bar.
+    shared: Option<Mapping>,
+}
+
+/// What drawing one panel placed, for `Rendered` and the shared bar.
+struct Drawn {
+    map: Placed,
+    bar: Option<Placed>,
+    labels: Vec<LabelBox>,
+    levels: Vec<f64>,
+}
+
+/// Draws panel `i`: its map, contours, nuclei, axes, heading and own colour bar.
+fn draw_panel(c: &mut Canvas, ctx: &PanelContext, i: usize, vals: &[f64], blank: bool) -> Drawn {
+    let PanelContext {
+        fig,
+        style,
+        frame,
+        grid,
+        shared,
+    } = *ctx;
+    let s = &frame.s;
+    let panel = &fig.panels[i];
+    let (nx, ny) = (grid.nx, grid.ny);
+    let (col, row) = (i % frame.cols, i / frame.cols);
+    let mx = (frame.cell_x(col) + s.left).round();
+    let my = (frame.top + row as f32 * frame.row_h + frame.head).round();
+    let scale = scale_for(style, panel);
+    let mapping = shared.unwrap_or_else(|| mapping_for(vals, panel.signed, log_for(style, panel)));
+    let zero = scale.at(mapping.t(0.0));
+    paint_map(c, vals, (mx, my), nx, |v| {
+        if blank { zero } else { scale.at(mapping.t(v)) }
+    });
+    let levels = if blank {
+        Vec::new()
+    } else {
+        levels_for(&style.contours, &mapping, panel.signed)
+    };
+    if !blank {
+        let values = Grid {
+            values: vals,
+            nx,
+            ny,
         };
-        if !blank[i] {
-            let grid = Grid {
-                values: vals,
-                nx,
-                ny,
-            };
-            draw_contours(&mut c, &grid, (mx, my), &levels, style);
-        }
-        if style.nuclei {
-            nuclei::draw(&mut c, &grid, &fig.nuclei, (mx, my), style.numbers);
-        }
-        if blank[i] {
-            c.text(
-                "zero on this plane",
-                s.heading,
-                mx + nx as f32 / 2.0,
-                my + 0.12 * ny as f32,
-                (HAlign::Centre, VAlign::Middle),
-                Colour::INK,
-            );
-        }
-        labels.push(axes::draw(
-            &mut c,
-            &Axes {
-                x: mx,
-                y: my,
-                width: nx as f32,
-                height: ny as f32,
-                window: fig.window,
-                u_label: &fig.plane.u_label,
-                v_label: &fig.plane.v_label,
-                font: s.font,
-            },
-        ));
-        if n > 1 {
-            let hx = mx + nx as f32 / 2.0;
-            let room = (cell_extra - s.left + map_w).max(map_w);
-            c.text(
-                &panel.heading,
-                fit_size(&panel.heading, s.heading, room),
-                hx,
-                my - 0.45 * s.heading,
-                (HAlign::Centre, VAlign::Bottom),
-                Colour::INK,
-            );
-        }
-        maps.push(Placed {
-            x: mx as u32,
-            y: my as u32,
-            width: nx as u32,
-            height: ny as u32,
-            mapping,
-        });
-        if own_bars && !blank[i] {
-            let bx = mx + nx as f32 + BAR_GAP;
-            bars.push(draw_bar(
-                &mut c,
-                (bx, my, ny as f32),
-                &scale,
-                mapping,
-                panel,
-                &levels,
-                &s,
-            ));
-        } else if !blank[i] {
-            levels_seen = levels;
-        }
+        draw_contours(c, &values, (mx, my), &levels, style);
     }
-    if let Some(mapping) = shared_mapping {
-        let last_col = cols.min(n) - 1;
-        let cell_x = s.margin + last_col as f32 * (cell_extra + map_w + s.gap);
-        let bx = cell_x + s.left + map_w.floor() + BAR_GAP;
-        let by = (top + head).round();
-        let bh = (rows - 1) as f32 * row_h + ny as f32;
-        let panel = &fig.panels[0];
-        let same = fig.panels.iter().all(|p| p.family == panel.family);
-        let quantity = Panel {
-            quantity: if same {
-                panel.family.clone()
+    if style.nuclei {
+        nuclei::draw(c, grid, &fig.nuclei, (mx, my), style.numbers);
+    }
+    if blank {
+        c.text(
+            "zero on this plane",
+            s.heading,
+            mx + nx as f32 / 2.0,
+            my + 0.12 * ny as f32,
+            (HAlign::Centre, VAlign::Middle),
+            Colour::INK,
+        );
+    }
+    let labels = axes::draw(
+        c,
+        &Axes {
+            x: mx,
+            y: my,
+            width: nx as f32,
+            height: ny as f32,
+            window: fig.window,
+            u_label: &fig.plane.u_label,
+            v_label: &fig.plane.v_label,
+            font: s.font,
+        },
+    );
+    if fig.panels.len() > 1 {
+        draw_heading(c, frame, &panel.heading, (mx + nx as f32 / 2.0, my));
+    }
+    let map = Placed {
+        x: mx as u32,
+        y: my as u32,
+        width: nx as u32,
+        height: ny as u32,
+        mapping,
+    };
+    let bar = (frame.own_bars && !blank).then(|| {
+        let bx = mx + nx as f32 + BAR_GAP;
+        draw_bar(c, (bx, my, ny as f32), &scale, mapping, panel, &levels, s)
+    });
+    Drawn {
+        map,
+        bar,
+        labels,
+        levels,
+    }
+}
+
+/// Puts a map's pixels, `colour` giving each value's colour and missing values hatched.
+fn paint_map(
+    c: &mut Canvas,
+    vals: &[f64],
+    (mx, my): (f32, f32),
+    nx: usize,
+    colour: impl Fn(f64) -> Colour,
+) {
+    let pixels: Vec<[u8; 3]> = vals
+        .iter()
+        .enumerate()
+        .map(|(k, v)| {
+            let col = if v.is_nan() {
+                hatch(k % nx, k / nx)
             } else {
-                "value".into()
-            },
-            ..panel.clone()
-        };
-        bars.push(draw_bar(
-            &mut c,
-            (bx, by, bh),
-            &scale_for(panel),
-            mapping,
-            &quantity,
-            &levels_seen,
-            &s,
-        ));
-    }
-    for (j, line) in title_lines.iter().enumerate() {
+                colour(*v)
+            };
+            [col.r, col.g, col.b]
+        })
+        .collect();
+    c.put_pixels(mx as u32, my as u32, nx as u32, &pixels);
+}
+
+/// A panel's heading centred at `hx` above the map's top `my`, shrunk to fit its cell.
+fn draw_heading(c: &mut Canvas, frame: &Frame, heading: &str, (hx, my): (f32, f32)) {
+    let s = &frame.s;
+    let room = (frame.cell_extra - s.left + frame.map_w).max(frame.map_w);
+    c.text(
+        heading,
+        fit_size(heading, s.heading, room),
+        hx,
+        my - 0.45 * s.heading,
+        (HAlign::Centre, VAlign::Bottom),
+        Colour::INK,
+    );
+}
+
+/// The one colour bar of a shared scale, right of the last column and spanning all rows.
+fn draw_shared_bar(c: &mut Canvas, ctx: &PanelContext, mapping: Mapping, levels: &[f64]) -> Placed {
+    let PanelContext {
+        fig,
+        style,
+        frame,
+        grid,
+        ..
+    } = *ctx;
+    let s = &frame.s;
+    let last_col = frame.cols.min(fig.panels.len()) - 1;
+    let bx = frame.cell_x(last_col) + s.left + frame.map_w.floor() + BAR_GAP;
+    let by = (frame.top + frame.head).round();
+    let bh = (frame.rows - 1) as f32 * frame.row_h + grid.ny as f32;
+    let panel = &fig.panels[0];
+    let same = fig.panels.iter().all(|p| p.family == panel.family);
+    let quantity = Panel {
+        quantity: if same {
+            panel.family.clone()
+        } else {
+            "value".into()
+        },
+        ..panel.clone()
+    };
+    draw_bar(
+        c,
+        (bx, by, bh),
+        &scale_for(style, panel),
+        mapping,
+        &quantity,
+        levels,
+        s,
+    )
+}
+
+/// The title centred at the top and the footnotes under the last row of maps.
+fn draw_title_and_footnotes(c: &mut Canvas, frame: &Frame) {
+    let s = &frame.s;
+    for (j, line) in frame.title_lines.iter().enumerate() {
         let y = s.margin + j as f32 * 1.3 * s.title;
         c.text(
             line,
             s.title,
-            width / 2.0,
+            frame.width / 2.0,
             y,
             (HAlign::Centre, VAlign::Top),
             Colour::INK,
         );
     }
-    let mut fy = top + rows as f32 * row_h;
-    for f in &foot_lines {
+    let mut fy = frame.top + frame.rows as f32 * frame.row_h;
+    for f in &frame.foot_lines {
         c.text(
             f,
             s.foot,
@@ -516,16 +689,6 @@ pub fn render(
         );
         fy += 1.35 * s.foot;
     }
-    Ok(Rendered {
-        canvas: c,
-        grid,
-        maps,
-        bars,
-        values,
-        peaks,
-        blank,
-        labels,
-    })
 }
 
 /// Where a map has no value: light grey with darker diagonal stripes every 8 px, a
