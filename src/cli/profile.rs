@@ -7,16 +7,16 @@ use clap::Args;
 
 use super::common::parse_count;
 use super::common::{print_notes, say};
-use lobecast::chem::LengthUnit;
 use lobecast::chem::units::bohr_to_angstrom;
+use lobecast::chem::{LengthUnit, Molecule};
 use lobecast::error::{Error, Result};
 use lobecast::field::Field;
 use lobecast::grid::line::{Endpoint, Line};
-use lobecast::output::OutputPlan;
+use lobecast::output::{OutputPlan, Slot};
 use lobecast::plot::profile::{Profile, Series, draw};
 use lobecast::render::Colour;
 use lobecast::render::text::formula_markup;
-use lobecast::source::Source;
+use lobecast::source::{FieldInfo, Source};
 
 /// Accepted ranges of the count options (documented in README and `--help`); a
 /// chart 4000 px wide is already far larger than any page or screen needs.
@@ -83,6 +83,56 @@ pub struct ProfileArgs {
 
 pub fn run(args: ProfileArgs) -> Result<()> {
     let started = Instant::now();
+    let request = read_request(&args)?;
+    let source = Source::load_for(
+        &args.source,
+        &args.xyz.options()?,
+        Some(&request.fields),
+        args.memory.memory,
+    )?;
+    let mut plan = OutputPlan::new(source.inputs());
+    let csv_slot = plan.add_opt(args.csv.as_deref(), false)?;
+    let png_slot = plan.add_opt(args.png.as_deref(), true)?;
+    let scene = plan_scene(&args, &request, &source)?;
+    check_cost(
+        &source,
+        &request.fields,
+        request.points,
+        args.csv.is_some(),
+        args.png.is_some().then_some(request.size),
+        args.memory.memory,
+    )?;
+    let samples = sample(&args, &request, &source, &scene.line)?;
+    let mut files = Vec::new();
+    if let Some(slot) = csv_slot {
+        let text = csv(&args, &scene, &samples);
+        files.push((slot, text.into_bytes()));
+    }
+    if let Some(slot) = png_slot {
+        files.push((
+            slot,
+            chart_png(&args, &source, &scene, &samples, request.size)?,
+        ));
+    }
+    write_and_report(plan, &files, &samples, started)?;
+    print_notes(&source.notes())?;
+    Ok(())
+}
+
+/// The options of one profile, read and checked before the source is loaded, so a
+/// mistyped option is refused without waiting for the load.
+struct Request {
+    points: usize,
+    size: u32,
+    fields: Vec<Field>,
+    from: Endpoint,
+    to: Endpoint,
+    extend: f64,
+}
+
+/// Reads and checks every option that does not need the source; the order of the
+/// checks decides which message a command with several mistakes gets.
+fn read_request(args: &ProfileArgs) -> Result<Request> {
     if args.csv.is_none() && args.png.is_none() {
         return Err(Error::input(
             "nothing to write: give --csv FILE and/or --png FILE",
@@ -104,18 +154,33 @@ pub fn run(args: ProfileArgs) -> Result<()> {
     let from = Endpoint::parse(&args.from, args.units)?;
     let to = Endpoint::parse(&args.to, args.units)?;
     let extend = parse_length("--extend", &args.extend, args.units)?;
-    let source = Source::load_for(
-        &args.source,
-        &args.xyz.options()?,
-        Some(&fields),
-        args.memory.memory,
-    )?;
-    let mut plan = OutputPlan::new(source.inputs());
-    let csv_slot = plan.add_opt(args.csv.as_deref(), false)?;
-    let png_slot = plan.add_opt(args.png.as_deref(), true)?;
+    Ok(Request {
+        points,
+        size,
+        fields,
+        from,
+        to,
+        extend,
+    })
+}
+
+/// The line on the molecule and what each field is, known once the source is loaded.
+struct Scene {
+    line: Line,
+    infos: Vec<FieldInfo>,
+}
+
+/// Places the line on the molecule and checks that a chart's fields share one unit,
+/// before anything is sampled.
+fn plan_scene(args: &ProfileArgs, request: &Request, source: &Source) -> Result<Scene> {
     let molecule = source.molecule();
-    let line = Line::new(from.position(molecule)?, to.position(molecule)?, extend)?;
-    let infos = fields
+    let line = Line::new(
+        request.from.position(molecule)?,
+        request.to.position(molecule)?,
+        request.extend,
+    )?;
+    let infos = request
+        .fields
         .iter()
         .map(|f| source.info(f))
         .collect::<Result<Vec<_>>>()?;
@@ -123,18 +188,25 @@ pub fn run(args: ProfileArgs) -> Result<()> {
         return Err(Error::input("a profile chart needs fields of one unit")
             .with_hint("draw orbitals and densities in separate charts"));
     }
-    check_cost(
-        &source,
-        &fields,
-        points,
-        args.csv.is_some(),
-        args.png.is_some().then_some(size),
-        args.memory.memory,
-    )?;
-    let sampler = source.sampler(&fields)?;
-    let s = line.distances(points);
+    Ok(Scene { line, infos })
+}
+
+/// The samples along the line: distances `s` from the start (bohr), the points, and
+/// the values of all `nf` fields, point by point.
+struct Samples {
+    s: Vec<f64>,
+    points: Vec<[f64; 3]>,
+    values: Vec<f64>,
+    nf: usize,
+}
+
+/// Evaluates every field at evenly spaced points, and refuses a line on which no
+/// sample has a value (it misses a cube's box).
+fn sample(args: &ProfileArgs, request: &Request, source: &Source, line: &Line) -> Result<Samples> {
+    let sampler = source.sampler(&request.fields)?;
+    let s = line.distances(request.points);
     let points: Vec<[f64; 3]> = s.iter().map(|&d| line.point(d)).collect();
-    let nf = fields.len();
+    let nf = request.fields.len();
     let mut values = vec![0.0; points.len() * nf];
     sampler.evaluate(&points, &mut values);
     if values.iter().all(|v| v.is_nan()) {
@@ -144,91 +216,118 @@ pub fn run(args: ProfileArgs) -> Result<()> {
         ))
         .with_hint("choose end points, or a shorter --extend, inside the box"));
     }
+    Ok(Samples {
+        s,
+        points,
+        values,
+        nf,
+    })
+}
 
-    let mut files = Vec::new();
-    if let Some(slot) = csv_slot {
-        let text = csv(&args, &line, &s, &points, &values, &infos);
-        files.push((slot, text.into_bytes()));
-    }
-    if let Some(slot) = png_slot {
-        let columns: Vec<Vec<f64>> = (0..nf)
-            .map(|k| values.iter().skip(k).step_by(nf).copied().collect())
-            .collect();
-        let s_ang: Vec<f64> = s.iter().map(|v| bohr_to_angstrom(*v)).collect();
-        let nuclei = line
-            .nuclei_near(molecule, ON_LINE_BOHR)
-            .into_iter()
-            .map(|(i, d, _)| {
-                (
-                    format!("{}{}", molecule.atoms[i].element.symbol, i + 1),
-                    bohr_to_angstrom(d),
-                )
+/// Draws the line chart as PNG bytes: one line per field against the distance in Å,
+/// with the nuclei on the line marked.
+fn chart_png(
+    args: &ProfileArgs,
+    source: &Source,
+    scene: &Scene,
+    samples: &Samples,
+    size: u32,
+) -> Result<Vec<u8>> {
+    let (infos, nf) = (&scene.infos, samples.nf);
+    let columns: Vec<Vec<f64>> = (0..nf)
+        .map(|k| samples.values.iter().skip(k).step_by(nf).copied().collect())
+        .collect();
+    let s_ang: Vec<f64> = samples.s.iter().map(|v| bohr_to_angstrom(*v)).collect();
+    let molecule = source.molecule();
+    let formula = formula_markup(&molecule.formula_with_charge());
+    let y_label = if nf == 1 {
+        format!("{} / {}", infos[0].quantity, infos[0].unit)
+    } else {
+        format!("{} / {}", infos[0].family, infos[0].unit)
+    };
+    let chart = Profile {
+        title: args.title.clone().unwrap_or_else(|| {
+            let list: Vec<&str> = infos.iter().map(|i| i.quantity.as_str()).collect();
+            format!(
+                "{formula} · {} from {} to {}",
+                list.join(", "),
+                args.from,
+                args.to
+            )
+        }),
+        s: &s_ang,
+        series: infos
+            .iter()
+            .zip(&columns)
+            .map(|(i, v)| Series {
+                label: i.short.clone(),
+                values: v,
             })
-            .collect();
-        let formula = formula_markup(&molecule.formula_with_charge());
-        let y_label = if nf == 1 {
-            format!("{} / {}", infos[0].quantity, infos[0].unit)
-        } else {
-            format!("{} / {}", infos[0].family, infos[0].unit)
-        };
-        let chart = Profile {
-            title: args.title.clone().unwrap_or_else(|| {
-                let list: Vec<&str> = infos.iter().map(|i| i.quantity.as_str()).collect();
-                format!(
-                    "{formula} · {} from {} to {}",
-                    list.join(", "),
-                    args.from,
-                    args.to
-                )
-            }),
-            s: &s_ang,
-            series: infos
-                .iter()
-                .zip(&columns)
-                .map(|(i, v)| Series {
-                    label: i.short.clone(),
-                    values: v,
-                })
-                .collect(),
-            y_label,
-            x_label: format!("distance from {} / Å", args.from),
-            nuclei,
-            footnotes: {
-                let mut f = vec![format!(
-                    "{} samples, {:.3} Å apart; {}.",
-                    s.len(),
-                    bohr_to_angstrom(s[1] - s[0]),
-                    source.provenance()
-                )];
-                if values.iter().any(|v| v.is_nan()) {
-                    f.push(
-                        "Gaps in a line: outside the cube's box, where the file holds no values."
-                            .into(),
-                    );
-                }
-                f.extend(source.caveat_footnotes());
-                f
-            },
-            width: size,
-            background: Colour::WHITE,
-        };
-        files.push((slot, draw(&chart)?.encode_png()?));
+            .collect(),
+        y_label,
+        x_label: format!("distance from {} / Å", args.from),
+        nuclei: nuclei_on_line(molecule, &scene.line),
+        footnotes: chart_footnotes(source, samples),
+        width: size,
+        background: Colour::WHITE,
+    };
+    draw(&chart)?.encode_png()
+}
+
+/// Labels (symbol and number) and distances (Å) of the nuclei that lie on the line,
+/// so the chart shows where the atoms are.
+fn nuclei_on_line(molecule: &Molecule, line: &Line) -> Vec<(String, f64)> {
+    line.nuclei_near(molecule, ON_LINE_BOHR)
+        .into_iter()
+        .map(|(i, d, _)| {
+            (
+                format!("{}{}", molecule.atoms[i].element.symbol, i + 1),
+                bohr_to_angstrom(d),
+            )
+        })
+        .collect()
+}
+
+/// The notes under the chart: the sampling and provenance, gaps where a cube holds
+/// no values, and the source's caveats.
+fn chart_footnotes(source: &Source, samples: &Samples) -> Vec<String> {
+    let s = &samples.s;
+    let mut f = vec![format!(
+        "{} samples, {:.3} Å apart; {}.",
+        s.len(),
+        bohr_to_angstrom(s[1] - s[0]),
+        source.provenance()
+    )];
+    if samples.values.iter().any(|v| v.is_nan()) {
+        f.push("Gaps in a line: outside the cube's box, where the file holds no values.".into());
     }
+    f.extend(source.caveat_footnotes());
+    f
+}
+
+/// Writes all files together only now that each is complete, then tells what was
+/// written and how long the profile took.
+fn write_and_report(
+    plan: OutputPlan,
+    files: &[(Slot, Vec<u8>)],
+    samples: &Samples,
+    started: Instant,
+) -> Result<()> {
     let mut out = plan.open()?;
-    for (slot, bytes) in &files {
+    for (slot, bytes) in files {
         out.put(*slot, bytes)?;
     }
     for name in out.commit()? {
         say!("wrote {name}");
     }
+    let s = &samples.s;
     say!(
         "profile of {} field(s) at {} points over {:.4} Å in {:.3} s",
-        nf,
+        samples.nf,
         s.len(),
         bohr_to_angstrom(s[s.len() - 1] - s[0]),
         started.elapsed().as_secs_f64()
     );
-    print_notes(&source.notes())?;
     Ok(())
 }
 
@@ -316,14 +415,9 @@ pub fn parse_length(name: &str, text: &str, default: LengthUnit) -> Result<f64> 
 
 /// Numbers are written in Rust's shortest round-trip form, so reading them back
 /// gives exactly the values computed; a sample without a value has an empty cell.
-fn csv(
-    args: &ProfileArgs,
-    line: &Line,
-    s: &[f64],
-    points: &[[f64; 3]],
-    values: &[f64],
-    infos: &[lobecast::source::FieldInfo],
-) -> String {
+fn csv(args: &ProfileArgs, scene: &Scene, samples: &Samples) -> String {
+    let (line, infos) = (&scene.line, &scene.infos);
+    let (s, points, values) = (&samples.s, &samples.points, &samples.values);
     let nf = infos.len();
     let mut t = format!(
         "# lobecast {} profile from {} to {} (extended by {} bohr at both ends) of {}\n\

@@ -6,16 +6,16 @@ use std::time::Instant;
 use clap::{Args, ValueEnum};
 
 use super::common::{parse_count, print_notes, say};
-use lobecast::chem::LengthUnit;
 use lobecast::chem::units::bohr_to_angstrom;
+use lobecast::chem::{LengthUnit, Molecule};
 use lobecast::error::{Error, Result};
 use lobecast::field::Field;
-use lobecast::grid::plane::{Axis, PlaneSpec, Window};
+use lobecast::grid::plane::{Axis, Plane, PlaneSpec, Window};
 use lobecast::output::OutputPlan;
 use lobecast::render::slice::{Contours, Figure, Nucleus, Panel, Rendered, Style, render};
 use lobecast::render::text::formula_markup;
 use lobecast::render::{Colour, Scale};
-use lobecast::source::Source;
+use lobecast::source::{FieldInfo, Sampler, Source};
 
 /// Default space around the projected nuclei (Å): the 1s tails of hydrogen fall below
 /// 1 % of their peak within it (exp(−4.7) for ζ = 1).
@@ -130,6 +130,52 @@ pub struct SliceArgs {
 
 pub fn run(args: SliceArgs) -> Result<()> {
     let started = Instant::now();
+    let request = read_request(&args)?;
+    let source = Source::load_for(
+        &args.source,
+        &args.xyz.options()?,
+        Some(&request.fields),
+        args.memory.memory,
+    )?;
+    let mut plan = OutputPlan::new(source.inputs());
+    let png_slot = plan.add_binary(&args.png)?;
+    let scene = plan_scene(&args, &request, &source)?;
+    let sampler = source.sampler(&request.fields)?;
+    let largest = lobecast::source::scale::largest(&source, &sampler);
+    let figure = describe(&args, &request.fields, &source, &scene, &largest);
+    let style = style(&args, &request);
+    check_cost(
+        &source,
+        &request.fields,
+        &figure,
+        &style,
+        args.memory.memory,
+    )?;
+    let drawn = sample_and_draw(&figure, &style, &sampler, request.fields.len())?;
+    refuse_empty(&drawn.rendered, &request.fields, &figure, &largest)?;
+    let mut out = plan.open()?;
+    out.put(png_slot, &drawn.rendered.canvas.encode_png()?)?;
+    let written = out.commit()?.remove(0);
+    report(&written, &drawn, &scene.infos, started)?;
+    print_notes(&source.notes())?;
+    Ok(())
+}
+
+/// The options of one figure, read and checked before the source is loaded, so a
+/// mistyped option is refused without waiting for the load.
+struct Request {
+    fields: Vec<Field>,
+    size: u32,
+    columns: usize,
+    spec: PlaneSpec,
+    scale: Option<Scale>,
+    contours: Contours,
+    extent: Option<(f64, f64)>,
+}
+
+/// Reads and checks every option that does not need the source; the order of the
+/// checks decides which message a command with several mistakes gets.
+fn read_request(args: &SliceArgs) -> Result<Request> {
     let field_text = args
         .panels
         .clone()
@@ -177,24 +223,38 @@ pub fn run(args: SliceArgs) -> Result<()> {
         .as_deref()
         .map(|e| parse_extent(e, args.units))
         .transpose()?;
-    let source = Source::load_for(
-        &args.source,
-        &args.xyz.options()?,
-        Some(&fields),
-        args.memory.memory,
-    )?;
-    let mut plan = OutputPlan::new(source.inputs());
-    let png_slot = plan.add_binary(&args.png)?;
+    Ok(Request {
+        fields,
+        size,
+        columns,
+        spec,
+        scale,
+        contours,
+        extent,
+    })
+}
+
+/// Where the figure looks and what each field is, known once the source is loaded.
+struct Scene {
+    plane: Plane,
+    window: Window,
+    infos: Vec<FieldInfo>,
+}
+
+/// Resolves the plane and window on the molecule and checks the fields against the
+/// options that depend on them, all before anything is sampled.
+fn plan_scene(args: &SliceArgs, request: &Request, source: &Source) -> Result<Scene> {
     let molecule = source.molecule();
-    let plane = spec.resolve(molecule, args.up)?;
-    let window = match extent {
+    let plane = request.spec.resolve(molecule, args.up)?;
+    let window = match request.extent {
         Some((w, h)) => {
             let centre = plane.window_around(molecule, 0.0).centre();
             Window::centred(centre, w, h)
         }
         None => plane.window_around(molecule, args.units_padding()),
     };
-    let infos = fields
+    let infos = request
+        .fields
         .iter()
         .map(|f| source.info(f))
         .collect::<Result<Vec<_>>>()?;
@@ -204,9 +264,58 @@ pub fn run(args: SliceArgs) -> Result<()> {
                 .with_hint("signed fields are drawn on a linear scale symmetric about zero"),
         );
     }
-    let sampler = source.sampler(&fields)?;
-    let largest = lobecast::source::scale::largest(&source, &sampler);
-    let nuclei = molecule
+    Ok(Scene {
+        plane,
+        window,
+        infos,
+    })
+}
+
+/// Builds what the figure shows (title, footnotes, nuclei, panels) apart from how it
+/// is drawn, so the cost check can lay it out before sampling.
+fn describe(
+    args: &SliceArgs,
+    fields: &[Field],
+    source: &Source,
+    scene: &Scene,
+    largest: &[f64],
+) -> Figure {
+    let infos = &scene.infos;
+    let formula = formula_markup(&source.molecule().formula_with_charge());
+    let title = args.title.clone().unwrap_or_else(|| {
+        if infos.len() == 1 {
+            format!("{formula} · {}", infos[0].heading)
+        } else {
+            let list: Vec<&str> = infos.iter().map(|i| i.quantity.as_str()).collect();
+            format!("{formula} · {}", list.join(", "))
+        }
+    });
+    Figure {
+        title,
+        footnotes: footnotes(args, fields, source, &scene.plane),
+        plane: scene.plane.clone(),
+        window: scene.window,
+        nuclei: project_nuclei(source.molecule(), &scene.plane),
+        panels: infos
+            .iter()
+            .zip(largest)
+            .map(|(i, l)| Panel {
+                heading: i.short.clone(),
+                quantity: i.quantity.clone(),
+                family: i.family.clone(),
+                unit: i.unit.clone(),
+                signed: i.signed,
+                largest: Some(*l),
+            })
+            .collect(),
+        gap_note: "Hatched: outside the cube's box, where the file holds no values.".to_string(),
+    }
+}
+
+/// Every nucleus placed on the plane, marked near when it lies within its covalent
+/// radius of it, so the figure can tell atoms in the plane from those behind it.
+fn project_nuclei(molecule: &Molecule, plane: &Plane) -> Vec<Nucleus> {
+    molecule
         .atoms
         .iter()
         .enumerate()
@@ -221,16 +330,12 @@ pub fn run(args: SliceArgs) -> Result<()> {
                 near: d.abs() <= LengthUnit::Angstrom.to_bohr(a.element.covalent_radius_angstrom),
             }
         })
-        .collect();
-    let formula = formula_markup(&molecule.formula_with_charge());
-    let title = args.title.clone().unwrap_or_else(|| {
-        if infos.len() == 1 {
-            format!("{formula} · {}", infos[0].heading)
-        } else {
-            let list: Vec<&str> = infos.iter().map(|i| i.quantity.as_str()).collect();
-            format!("{formula} · {}", list.join(", "))
-        }
-    });
+        .collect()
+}
+
+/// The notes under the figure: where the values come from, the source's caveats,
+/// and what a deformation or a shared scale means.
+fn footnotes(args: &SliceArgs, fields: &[Field], source: &Source, plane: &Plane) -> Vec<String> {
     let mut footnotes = vec![format!("{}; {}", plane.description, source.provenance())];
     footnotes.extend(source.caveat_footnotes());
     if fields
@@ -245,45 +350,40 @@ pub fn run(args: SliceArgs) -> Result<()> {
     if args.shared_scale {
         footnotes.push("All panels share one colour scale.".to_string());
     }
-    let figure = Figure {
-        title,
-        footnotes,
-        plane,
-        window,
-        nuclei,
-        panels: infos
-            .iter()
-            .zip(&largest)
-            .map(|(i, l)| Panel {
-                heading: i.short.clone(),
-                quantity: i.quantity.clone(),
-                family: i.family.clone(),
-                unit: i.unit.clone(),
-                signed: i.signed,
-                largest: Some(*l),
-            })
-            .collect(),
-        gap_note: "Hatched: outside the cube's box, where the file holds no values.".to_string(),
-    };
-    let style = Style {
-        width: size,
+    footnotes
+}
+
+/// How the figure is drawn (size, colours, contours, layout), kept apart from what
+/// it shows.
+fn style(args: &SliceArgs, request: &Request) -> Style {
+    Style {
+        width: request.size,
         background: match args.background {
             Background::White => Colour::WHITE,
             Background::Transparent => Colour::TRANSPARENT,
         },
-        scale,
+        scale: request.scale,
         log_decades: args.log,
-        contours,
+        contours: request.contours.clone(),
         zero_contour: args.zero_contour,
         nuclei: true,
         numbers: args.numbers,
         shared_scale: args.shared_scale,
-        columns,
-    };
-    check_cost(&source, &fields, &figure, &style, args.memory.memory)?;
-    let nf = fields.len();
+        columns: request.columns,
+    }
+}
+
+/// The drawn figure and the seconds spent evaluating the fields, for the report.
+struct Drawn {
+    rendered: Rendered,
+    eval_seconds: f64,
+}
+
+/// Samples all `nf` fields in one pass over the map's pixel centres, timing it, and
+/// draws the figure from the per-panel values.
+fn sample_and_draw(figure: &Figure, style: &Style, sampler: &Sampler, nf: usize) -> Result<Drawn> {
     let mut eval_seconds = 0.0;
-    let rendered = render(&figure, &style, |grid| {
+    let rendered = render(figure, style, |grid| {
         let t = Instant::now();
         let all = grid.sample(nf, |p, v| sampler.evaluate(p, v));
         eval_seconds = t.elapsed().as_secs_f64();
@@ -291,10 +391,17 @@ pub fn run(args: SliceArgs) -> Result<()> {
             .map(|k| all.iter().skip(k).step_by(nf).copied().collect())
             .collect()
     })?;
-    refuse_empty(&rendered, &fields, &figure, &largest)?;
-    let mut out = plan.open()?;
-    out.put(png_slot, &rendered.canvas.encode_png()?)?;
-    let written = out.commit()?.remove(0);
+    Ok(Drawn {
+        rendered,
+        eval_seconds,
+    })
+}
+
+/// Tells what was written, how fast the sampling went and each panel's colour range
+/// (or that it was drawn blank).
+fn report(written: &str, drawn: &Drawn, infos: &[FieldInfo], started: Instant) -> Result<()> {
+    let rendered = &drawn.rendered;
+    let nf = infos.len();
     let g = &rendered.grid;
     let samples = g.nx * g.ny * nf;
     say!(
@@ -307,8 +414,8 @@ pub fn run(args: SliceArgs) -> Result<()> {
         g.ny,
         bohr_to_angstrom(g.window.width()),
         bohr_to_angstrom(g.window.height()),
-        eval_seconds,
-        samples as f64 / eval_seconds.max(1e-9) / 1e6,
+        drawn.eval_seconds,
+        samples as f64 / drawn.eval_seconds.max(1e-9) / 1e6,
         started.elapsed().as_secs_f64()
     );
     for (k, (info, m)) in infos.iter().zip(&rendered.maps).enumerate() {
@@ -319,7 +426,6 @@ pub fn run(args: SliceArgs) -> Result<()> {
             say!("  {}: colour range {lo:.6e} to {hi:.6e}", info.plain);
         }
     }
-    print_notes(&source.notes())?;
     Ok(())
 }
 
