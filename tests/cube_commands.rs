@@ -18,30 +18,32 @@ fn field(v: &serde_json::Value, key: &str) -> f64 {
     v["fields"][0][key].as_f64().unwrap()
 }
 
+/// `volume` of one field of the H2+ model on the tests' common grid.
+fn volume(dir: &Path, field: &str, out: &str) {
+    ok(
+        dir,
+        &[
+            "volume",
+            "h2.toml",
+            "--field",
+            field,
+            "--spacing",
+            "0.15",
+            "--units",
+            "bohr",
+            "--padding",
+            "6",
+            "--out",
+            out,
+        ],
+    );
+}
+
 fn setup() -> tempfile::TempDir {
     let d = tempfile::tempdir().unwrap();
     fs::write(d.path().join("h2.toml"), H2).unwrap();
-    let vol = |field: &str, out: &str| {
-        ok(
-            d.path(),
-            &[
-                "volume",
-                "h2.toml",
-                "--field",
-                field,
-                "--spacing",
-                "0.15",
-                "--units",
-                "bohr",
-                "--padding",
-                "6",
-                "--out",
-                out,
-            ],
-        );
-    };
-    vol("orbital-density:1", "bond.cube");
-    vol("orbital-density:2", "anti.cube.gz");
+    volume(d.path(), "orbital-density:1", "bond.cube");
+    volume(d.path(), "orbital-density:2", "anti.cube.gz");
     d
 }
 
@@ -308,23 +310,7 @@ fn inspect_report() {
 fn combine_states_units_and_takes_odd_names() {
     let d = setup();
     let p = d.path();
-    ok(
-        p,
-        &[
-            "volume",
-            "h2.toml",
-            "--field",
-            "orbital:1",
-            "--spacing",
-            "0.15",
-            "--units",
-            "bohr",
-            "--padding",
-            "6",
-            "--out",
-            "psi.cube",
-        ],
-    );
+    volume(p, "orbital:1", "psi.cube");
     let comment = |f: &str| {
         fs::read_to_string(p.join(f))
             .unwrap()
