@@ -105,66 +105,8 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         ))
     })?;
     let bad = |field: String, msg: String| Error::input(format!("{name}: {field}: {msg}"));
-    if doc.format != FORMAT {
-        return Err(bad(
-            "format".into(),
-            format!("expected {FORMAT:?}, found {:?}", doc.format),
-        ));
-    }
-    if doc.version != VERSION {
-        return Err(bad(
-            "version".into(),
-            format!(
-                "this lobecast reads version {VERSION}, found {}",
-                doc.version
-            ),
-        ));
-    }
-    let length = match doc.length_unit.as_str() {
-        "bohr" => 1.0,
-        "angstrom" => 1.0 / BOHR_IN_ANGSTROM,
-        u => {
-            return Err(bad(
-                "length_unit".into(),
-                format!("expected \"bohr\" or \"angstrom\", found {u:?}"),
-            ));
-        }
-    };
-    let energy = match doc.energy_unit.as_str() {
-        "hartree" => 1.0,
-        "ev" => 1.0 / HARTREE_IN_EV,
-        u => {
-            return Err(bad(
-                "energy_unit".into(),
-                format!("expected \"hartree\" or \"ev\", found {u:?}"),
-            ));
-        }
-    };
-    let mut atoms = Vec::with_capacity(doc.atoms.len());
-    for (i, a) in doc.atoms.iter().enumerate() {
-        let element = elements::by_symbol(&a.element).ok_or_else(|| {
-            bad(
-                format!("atoms[{i}].element"),
-                elements::unknown_symbol(&a.element),
-            )
-        })?;
-        if element.atomic_number != a.atomic_number {
-            return Err(bad(
-                format!("atoms[{i}].atomic_number"),
-                format!(
-                    "{} is {} but the file says {}",
-                    a.element, element.atomic_number, a.atomic_number
-                ),
-            ));
-        }
-        if a.position.iter().any(|x| !x.is_finite()) {
-            return Err(bad(format!("atoms[{i}].position"), "not finite".into()));
-        }
-        atoms.push(Atom {
-            element,
-            position: a.position.map(|x| x * length),
-        });
-    }
+    let (length, energy) = units(&doc).map_err(|(f, m)| bad(f, m))?;
+    let atoms = read_atoms(&doc.atoms, length).map_err(|(f, m)| bad(f, m))?;
     elements_check(&atoms).map_err(|e| e.context(name))?;
     let nbf = doc.basis.len();
     let estimate =
@@ -199,55 +141,8 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         shells,
     };
     let nbf = basis.len();
-    let mut orbitals = Vec::with_capacity(doc.orbitals.len());
-    for (i, o) in doc.orbitals.iter().enumerate() {
-        if o.coefficients.len() != nbf {
-            return Err(bad(
-                format!("orbitals[{i}].coefficients"),
-                format!(
-                    "has {} entries but the basis has {nbf} functions",
-                    o.coefficients.len()
-                ),
-            ));
-        }
-        if !o.energy.is_finite() || o.coefficients.iter().any(|c| !c.is_finite()) {
-            return Err(bad(
-                format!("orbitals[{i}]"),
-                "energy and coefficients must be finite numbers".into(),
-            ));
-        }
-        if !(0.0..=2.0).contains(&o.occupation) {
-            return Err(bad(
-                format!("orbitals[{i}].occupation"),
-                format!("must be between 0 and 2, found {}", o.occupation),
-            ));
-        }
-        if o.coefficients.iter().all(|&c| c == 0.0) {
-            return Err(bad(
-                format!("orbitals[{i}].coefficients"),
-                "all zero: an orbital must not vanish everywhere".into(),
-            ));
-        }
-        orbitals.push(Orbital {
-            energy: o.energy * energy,
-            occupation: o.occupation,
-            coefficients: o.coefficients.clone(),
-        });
-    }
-    if orbitals.is_empty() {
-        return Err(bad("orbitals".into(), "the file holds no orbitals".into()));
-    }
+    let mut orbitals = read_orbitals(&doc.orbitals, nbf, energy).map_err(|(f, m)| bad(f, m))?;
     let electrons: f64 = orbitals.iter().map(|o| o.occupation).sum();
-    let occupied = orbitals.iter().filter(|o| o.occupation > 0.0).count();
-    if occupied > nbf || electrons > 2.0 * nbf as f64 + 1e-9 {
-        return Err(bad(
-            "orbitals".into(),
-            format!(
-                "{occupied} occupied orbitals with {electrons} electrons, but a basis of {nbf} functions holds at most {nbf} orbitals and {} electrons (2 per function)",
-                2 * nbf
-            ),
-        ));
-    }
     let reference = doc.reference_occupations.clone();
     if let Some(r) = &reference {
         if r.len() != basis.len() || r.iter().any(|v| !(v.is_finite() && *v >= 0.0)) {
@@ -338,6 +233,135 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     };
     crate::solve::degenerate::canonicalise(&mut set);
     Ok(set)
+}
+
+/// The error of one field: its path in the file and what is wrong with it.
+type FieldResult<T> = std::result::Result<T, (String, String)>;
+
+/// The format and version checked, and the factors that take the file's lengths to
+/// bohr and its energies to hartree.
+fn units(doc: &Doc) -> FieldResult<(f64, f64)> {
+    if doc.format != FORMAT {
+        return Err((
+            "format".into(),
+            format!("expected {FORMAT:?}, found {:?}", doc.format),
+        ));
+    }
+    if doc.version != VERSION {
+        return Err((
+            "version".into(),
+            format!(
+                "this lobecast reads version {VERSION}, found {}",
+                doc.version
+            ),
+        ));
+    }
+    let length = match doc.length_unit.as_str() {
+        "bohr" => 1.0,
+        "angstrom" => 1.0 / BOHR_IN_ANGSTROM,
+        u => {
+            return Err((
+                "length_unit".into(),
+                format!("expected \"bohr\" or \"angstrom\", found {u:?}"),
+            ));
+        }
+    };
+    let energy = match doc.energy_unit.as_str() {
+        "hartree" => 1.0,
+        "ev" => 1.0 / HARTREE_IN_EV,
+        u => {
+            return Err((
+                "energy_unit".into(),
+                format!("expected \"hartree\" or \"ev\", found {u:?}"),
+            ));
+        }
+    };
+    Ok((length, energy))
+}
+
+/// The atoms, each element checked against its atomic number, positions in bohr.
+fn read_atoms(entries: &[AtomEntry], length: f64) -> FieldResult<Vec<Atom>> {
+    let mut atoms = Vec::with_capacity(entries.len());
+    for (i, a) in entries.iter().enumerate() {
+        let element = elements::by_symbol(&a.element).ok_or_else(|| {
+            (
+                format!("atoms[{i}].element"),
+                elements::unknown_symbol(&a.element),
+            )
+        })?;
+        if element.atomic_number != a.atomic_number {
+            return Err((
+                format!("atoms[{i}].atomic_number"),
+                format!(
+                    "{} is {} but the file says {}",
+                    a.element, element.atomic_number, a.atomic_number
+                ),
+            ));
+        }
+        if a.position.iter().any(|x| !x.is_finite()) {
+            return Err((format!("atoms[{i}].position"), "not finite".into()));
+        }
+        atoms.push(Atom {
+            element,
+            position: a.position.map(|x| x * length),
+        });
+    }
+    Ok(atoms)
+}
+
+/// The orbitals, each checked (length, finite, occupation, not vanishing), energies
+/// in hartree; and the occupations checked against what `nbf` functions can hold.
+fn read_orbitals(entries: &[OrbitalEntry], nbf: usize, energy: f64) -> FieldResult<Vec<Orbital>> {
+    let mut orbitals = Vec::with_capacity(entries.len());
+    for (i, o) in entries.iter().enumerate() {
+        if o.coefficients.len() != nbf {
+            return Err((
+                format!("orbitals[{i}].coefficients"),
+                format!(
+                    "has {} entries but the basis has {nbf} functions",
+                    o.coefficients.len()
+                ),
+            ));
+        }
+        if !o.energy.is_finite() || o.coefficients.iter().any(|c| !c.is_finite()) {
+            return Err((
+                format!("orbitals[{i}]"),
+                "energy and coefficients must be finite numbers".into(),
+            ));
+        }
+        if !(0.0..=2.0).contains(&o.occupation) {
+            return Err((
+                format!("orbitals[{i}].occupation"),
+                format!("must be between 0 and 2, found {}", o.occupation),
+            ));
+        }
+        if o.coefficients.iter().all(|&c| c == 0.0) {
+            return Err((
+                format!("orbitals[{i}].coefficients"),
+                "all zero: an orbital must not vanish everywhere".into(),
+            ));
+        }
+        orbitals.push(Orbital {
+            energy: o.energy * energy,
+            occupation: o.occupation,
+            coefficients: o.coefficients.clone(),
+        });
+    }
+    if orbitals.is_empty() {
+        return Err(("orbitals".into(), "the file holds no orbitals".into()));
+    }
+    let electrons: f64 = orbitals.iter().map(|o| o.occupation).sum();
+    let occupied = orbitals.iter().filter(|o| o.occupation > 0.0).count();
+    if occupied > nbf || electrons > 2.0 * nbf as f64 + 1e-9 {
+        return Err((
+            "orbitals".into(),
+            format!(
+                "{occupied} occupied orbitals with {electrons} electrons, but a basis of {nbf} functions holds at most {nbf} orbitals and {} electrons (2 per function)",
+                2 * nbf
+            ),
+        ));
+    }
+    Ok(orbitals)
 }
 
 /// Atoms closer than 0.1 Å are refused (ghost centres excepted), named by their
