@@ -317,7 +317,7 @@ pub fn render(
     );
     let survey = survey(fig, &values);
     let frame = Frame::new(fig, &layout, &survey);
-    let mut c = Canvas::new(frame.width as u32, frame.height, style.background);
+    let mut c = Canvas::new(frame.lay.width as u32, frame.height, style.background);
     let ctx = PanelContext {
         fig,
         style,
@@ -393,12 +393,8 @@ fn survey(fig: &Figure, values: &[Vec<f64>]) -> Survey {
 /// that every drawing step places things from one source.
 struct Frame {
     s: Sizes,
-    cols: usize,
-    rows: usize,
-    width: f32,
-    map_w: f32,
-    cell_extra: f32,
-    own_bars: bool,
+    /// Columns, rows, widths and bars, as laid out before sampling.
+    lay: Layout,
     /// Room for the headings over the maps (none for a single map).
     head: f32,
     /// Top of the first row of maps (its headings included).
@@ -427,12 +423,7 @@ impl Frame {
         let height = (top + layout.rows as f32 * row_h + foot_h + s.margin).ceil() as u32;
         Frame {
             s,
-            cols: layout.cols,
-            rows: layout.rows,
-            width,
-            map_w: layout.map_w,
-            cell_extra: layout.cell_extra,
-            own_bars: layout.own_bars,
+            lay: layout.clone(),
             head,
             top,
             row_h,
@@ -444,7 +435,7 @@ impl Frame {
 
     /// Left edge of the cell (axis room, map and bar) in column `col`.
     fn cell_x(&self, col: usize) -> f32 {
-        self.s.margin + col as f32 * (self.cell_extra + self.map_w + self.s.gap)
+        self.s.margin + col as f32 * (self.lay.cell_extra + self.lay.map_w + self.s.gap)
     }
 }
 
@@ -503,13 +494,13 @@ fn draw_title_and_footnotes(c: &mut Canvas, frame: &Frame) {
         c.text(
             line,
             s.title,
-            frame.width / 2.0,
+            frame.lay.width / 2.0,
             y,
             (HAlign::Centre, VAlign::Top),
             Colour::INK,
         );
     }
-    let mut fy = frame.top + frame.rows as f32 * frame.row_h;
+    let mut fy = frame.top + frame.lay.rows as f32 * frame.row_h;
     for f in &frame.foot_lines {
         c.text(
             f,

@@ -39,7 +39,7 @@ pub(super) fn draw_panel(
     let s = &frame.s;
     let panel = &fig.panels[i];
     let (nx, ny) = (grid.nx, grid.ny);
-    let (col, row) = (i % frame.cols, i / frame.cols);
+    let (col, row) = (i % frame.lay.cols, i / frame.lay.cols);
     let mx = (frame.cell_x(col) + s.left).round();
     let my = (frame.top + row as f32 * frame.row_h + frame.head).round();
     let scale = scale_for(style, panel);
@@ -97,7 +97,7 @@ pub(super) fn draw_panel(
         height: ny as u32,
         mapping,
     };
-    let bar = (frame.own_bars && !blank).then(|| {
+    let bar = (frame.lay.own_bars && !blank).then(|| {
         let bx = mx + nx as f32 + BAR_GAP;
         draw_bar(c, (bx, my, ny as f32), &scale, mapping, panel, &levels, s)
     });
@@ -135,7 +135,7 @@ pub(super) fn paint_map(
 /// A panel's heading centred at `hx` above the map's top `my`, shrunk to fit its cell.
 pub(super) fn draw_heading(c: &mut Canvas, frame: &Frame, heading: &str, (hx, my): (f32, f32)) {
     let s = &frame.s;
-    let room = (frame.cell_extra - s.left + frame.map_w).max(frame.map_w);
+    let room = (frame.lay.cell_extra - s.left + frame.lay.map_w).max(frame.lay.map_w);
     c.text(
         heading,
         fit_size(heading, s.heading, room),
@@ -161,10 +161,10 @@ pub(super) fn draw_shared_bar(
         ..
     } = *ctx;
     let s = &frame.s;
-    let last_col = frame.cols.min(fig.panels.len()) - 1;
-    let bx = frame.cell_x(last_col) + s.left + frame.map_w.floor() + BAR_GAP;
+    let last_col = frame.lay.cols.min(fig.panels.len()) - 1;
+    let bx = frame.cell_x(last_col) + s.left + frame.lay.map_w.floor() + BAR_GAP;
     let by = (frame.top + frame.head).round();
-    let bh = (frame.rows - 1) as f32 * frame.row_h + grid.ny as f32;
+    let bh = (frame.lay.rows - 1) as f32 * frame.row_h + grid.ny as f32;
     let panel = &fig.panels[0];
     let same = fig.panels.iter().all(|p| p.family == panel.family);
     let quantity = Panel {
