@@ -19,5 +19,6 @@ pub mod plot;
 pub mod render;
 pub mod solve;
 pub mod source;
+pub mod surface;
 
 pub use error::{Error, Result};

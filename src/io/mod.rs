@@ -1,8 +1,9 @@
 //! File formats, one file each, each opening with its layout and its specification:
-//! model files (TOML), XYZ, the orbital file (JSON), cube files, PNG. Reading gives
+//! model files (TOML), XYZ, the orbital file (JSON), cube files, surface meshes (glTF, PLY, OBJ), PNG. Reading gives
 //! plain data to the rooms below; nothing here solves or evaluates.
 
 pub mod cube;
+pub mod mesh;
 pub mod model;
 pub mod orbitals;
 pub mod png;

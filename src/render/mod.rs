@@ -8,6 +8,7 @@ pub mod colorbar;
 pub mod contour;
 pub mod nuclei;
 pub mod scale;
+pub mod scene;
 pub mod slice;
 pub mod text;
 pub mod ticks;
