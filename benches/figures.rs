@@ -147,7 +147,9 @@ fn whole_figure(bencher: Bencher, maps: usize) {
                 .collect()
         })
         .unwrap();
-        r.canvas.encode_png().unwrap()
+        r.canvas
+            .encode_png(&lobecast::io::png::PngMeta::default())
+            .unwrap()
     });
 }
 

@@ -122,3 +122,46 @@ pub fn shown(x: f64) -> String {
         format!("{x}")
     }
 }
+
+/// `--dpi`, for every command that writes a PNG figure.
+#[derive(Debug, Args, Clone)]
+pub struct FigureFlags {
+    /// Physical resolution recorded in the PNG file (dots per inch, 10 to 10000):
+    /// the size at which a report's layout program places the figure
+    #[arg(long, value_name = "DPI", default_value_t = lobecast::io::png::DEFAULT_DPI, allow_negative_numbers = true)]
+    pub dpi: f64,
+}
+
+impl FigureFlags {
+    /// What every PNG records besides its pixels: resolution, title, and the command
+    /// line that made it.
+    pub fn meta(&self, title: Option<String>) -> Result<lobecast::io::png::PngMeta> {
+        let (lo, hi) = lobecast::io::png::DPI_RANGE;
+        if !(self.dpi >= lo && self.dpi <= hi) {
+            return Err(Error::input(format!(
+                "--dpi must be between {lo} and {hi}, got {}",
+                shown(self.dpi)
+            )));
+        }
+        Ok(lobecast::io::png::PngMeta {
+            dpi: self.dpi,
+            title,
+            command: Some(command_line()),
+        })
+    }
+}
+
+/// The command line as typed (arguments with spaces quoted), for provenance.
+pub fn command_line() -> String {
+    std::env::args_os()
+        .map(|a| {
+            let a = a.to_string_lossy().into_owned();
+            if a.is_empty() || a.contains(|c: char| c.is_whitespace() || c == '\'') {
+                format!("'{}'", a.replace('\'', r"'\''"))
+            } else {
+                a
+            }
+        })
+        .collect::<Vec<_>>()
+        .join(" ")
+}

@@ -57,6 +57,8 @@ pub struct CurveArgs {
     /// beside it in FILE-integrals.png)
     #[arg(long, value_name = "FILE")]
     pub png: Option<PathBuf>,
+    #[command(flatten)]
+    pub figure: super::common::FigureFlags,
 }
 
 /// Checks what every curve needs: two atoms, one electron, a basis to rebuild.
@@ -101,6 +103,7 @@ fn solve_at(template: &Molecule, spec: &BasisSpec, r: f64) -> Result<OrbitalSet>
 pub const MAX_STATES: u64 = 100;
 
 pub fn run(args: CurveArgs) -> Result<()> {
+    let meta = args.figure.meta(None)?;
     let states = match &args.states {
         Some(k) => super::common::parse_count("--states", k, 1, MAX_STATES)? as usize,
         None => 2,
@@ -208,12 +211,18 @@ pub fn run(args: CurveArgs) -> Result<()> {
         let data = chart
             .as_ref()
             .ok_or_else(|| Error::input("--png needs at least two states (--states 2)"))?;
-        files.push((slot, lobecast::plot::curve::energies(data)?.encode_png()?));
+        files.push((
+            slot,
+            lobecast::plot::curve::energies(data)?.encode_png(&meta)?,
+        ));
         if let Some(slot) = integrals_png {
-            files.push((slot, lobecast::plot::curve::integrals(data)?.encode_png()?));
+            files.push((
+                slot,
+                lobecast::plot::curve::integrals(data)?.encode_png(&meta)?,
+            ));
         }
         if let (Some(slot), Some(b)) = (buildup_png, &buildups) {
-            files.push((slot, charts::buildup(&model, &rs, b)?.encode_png()?));
+            files.push((slot, charts::buildup(&model, &rs, b)?.encode_png(&meta)?));
         }
     }
     let mut out = plan.open()?;

@@ -79,10 +79,13 @@ pub struct ProfileArgs {
     pub size: String,
     #[command(flatten)]
     pub memory: super::common::MemoryFlag,
+    #[command(flatten)]
+    pub figure: super::common::FigureFlags,
 }
 
 pub fn run(args: ProfileArgs) -> Result<()> {
     let started = Instant::now();
+    args.figure.meta(None)?;
     let request = read_request(&args)?;
     let source = Source::load_for(
         &args.source,
@@ -271,7 +274,7 @@ fn chart_png(
         width: size,
         background: Colour::WHITE,
     };
-    draw(&chart)?.encode_png()
+    draw(&chart)?.encode_png(&args.figure.meta(None)?)
 }
 
 /// Labels (symbol and number) and distances (Å) of the nuclei that lie on the line,

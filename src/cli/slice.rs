@@ -126,10 +126,13 @@ pub struct SliceArgs {
     pub background: Background,
     #[command(flatten)]
     pub memory: super::common::MemoryFlag,
+    #[command(flatten)]
+    pub figure: super::common::FigureFlags,
 }
 
 pub fn run(args: SliceArgs) -> Result<()> {
     let started = Instant::now();
+    let meta = args.figure.meta(None)?;
     let request = read_request(&args)?;
     let source = Source::load_for(
         &args.source,
@@ -154,7 +157,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
     let drawn = sample_and_draw(&figure, &style, &sampler, request.fields.len())?;
     refuse_empty(&drawn.rendered, &request.fields, &figure, &largest)?;
     let mut out = plan.open()?;
-    out.put(png_slot, &drawn.rendered.canvas.encode_png()?)?;
+    out.put(png_slot, &drawn.rendered.canvas.encode_png(&meta)?)?;
     let written = out.commit()?.remove(0);
     report(&written, &drawn, &scene.infos, started)?;
     print_notes(&source.notes())?;

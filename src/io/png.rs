@@ -3,7 +3,9 @@
 //! - `pHYs`: the resolution in pixels per metre, so a report's layout program
 //!   places the figure at its intended physical size;
 //! - `tEXt`: `Software` (program and version) and `Title` where a figure has one,
-//!   Latin-1 keywords from the specification's list of predefined keywords.
+//!   Latin-1 keywords from the specification's list of predefined keywords;
+//! - `iTXt` (UTF-8): `Comment` holding the command line that made the figure, so a
+//!   figure in a report can be remade from the file alone.
 //!
 //! Every PNG lobecast writes is encoded here, through the `png` crate, from an
 //! `image::RgbaImage` raster.
@@ -12,14 +14,19 @@ use image::RgbaImage;
 
 use crate::error::{Error, Result};
 
-/// Dots per inch recorded in `pHYs` (common practice for report figures).
-pub const DEFAULT_DPI: f64 = 150.0;
+/// Dots per inch recorded in `pHYs`: 300 is what journals commonly ask of raster
+/// figures (common practice).
+pub const DEFAULT_DPI: f64 = 300.0;
+/// Accepted `--dpi` range: below 10 or above 10 000 is a typo, not a resolution.
+pub const DPI_RANGE: (f64, f64) = (10.0, 10_000.0);
 
 /// What a figure file says about itself besides its pixels.
 #[derive(Debug, Clone)]
 pub struct PngMeta {
     pub dpi: f64,
     pub title: Option<String>,
+    /// The command line that made the figure.
+    pub command: Option<String>,
 }
 
 impl Default for PngMeta {
@@ -27,6 +34,7 @@ impl Default for PngMeta {
         PngMeta {
             dpi: DEFAULT_DPI,
             title: None,
+            command: None,
         }
     }
 }
@@ -58,6 +66,10 @@ pub fn encode(img: &RgbaImage, meta: &PngMeta) -> Result<Vec<u8>> {
             let latin1: String = t.chars().filter(|c| (*c as u32) < 256).collect();
             enc.add_text_chunk("Title".into(), latin1).map_err(fail)?;
         }
+        if let Some(c) = &meta.command {
+            enc.add_itxt_chunk("Comment".into(), c.clone())
+                .map_err(fail)?;
+        }
         let mut w = enc.write_header().map_err(fail)?;
         w.write_image_data(img.as_raw()).map_err(fail)?;
         w.finish().map_err(fail)?;
@@ -77,6 +89,7 @@ mod tests {
         let meta = PngMeta {
             dpi: 150.0,
             title: Some("ψ₊ at R = 2 bohr".into()),
+            command: Some("lobecast surface ψ.toml --field orbital:1".into()),
         };
         let bytes = encode(&img, &meta).unwrap();
         let dec = png::Decoder::new(std::io::Cursor::new(bytes));
@@ -99,6 +112,15 @@ mod tests {
             texts
                 .iter()
                 .any(|(k, v)| *k == "Title" && v.contains("at R = 2 bohr"))
+        );
+        let comment = info
+            .utf8_text
+            .iter()
+            .find(|t| t.keyword == "Comment")
+            .unwrap();
+        assert_eq!(
+            comment.get_text().unwrap(),
+            "lobecast surface ψ.toml --field orbital:1"
         );
     }
 }

@@ -297,8 +297,8 @@ impl Canvas {
     }
 
     /// The figure as a PNG file (see `io::png`).
-    pub fn encode_png(&self) -> crate::Result<Vec<u8>> {
-        crate::io::png::encode(&self.to_image(), &crate::io::png::PngMeta::default())
+    pub fn encode_png(&self, meta: &crate::io::png::PngMeta) -> crate::Result<Vec<u8>> {
+        crate::io::png::encode(&self.to_image(), meta)
     }
 }
 

@@ -213,6 +213,47 @@ pub fn summarize(
     Ok((info, out))
 }
 
+/// The enclosed-fraction isovalue (the definition at the top of this file) of one
+/// field held in memory: `values[offset], values[offset + stride], …`. The same two
+/// histogram passes as for a file, so `surface` and `inspect` agree on a level.
+/// `None` when the field is zero everywhere.
+pub fn enclosing_level(
+    values: &[f64],
+    stride: usize,
+    offset: usize,
+    fraction: f64,
+    measure: Measure,
+) -> Result<Option<f64>> {
+    if !(fraction > 0.0 && fraction <= 1.0) {
+        return Err(Error::input(format!(
+            "the enclosed fraction must be above 0 and at most 1, got {fraction}"
+        )));
+    }
+    let field = || values.iter().skip(offset).step_by(stride.max(1));
+    let mut coarse = vec![0.0; BINS];
+    for &v in field() {
+        coarse[(v.abs().to_bits() >> COARSE_SHIFT) as usize] += measure.weight(v);
+    }
+    let Some((bin, above, target)) = Plan::choose(&coarse, fraction) else {
+        return Ok(None);
+    };
+    let plan = Plan {
+        measure,
+        bin,
+        above,
+        target,
+    };
+    let mut fine = coarse;
+    fine.fill(0.0);
+    for &v in field() {
+        let bits = v.abs().to_bits();
+        if (bits >> COARSE_SHIFT) as usize == bin {
+            fine[((bits >> FINE_SHIFT) as usize) & (BINS - 1)] += measure.weight(v);
+        }
+    }
+    Ok(Some(plan.level(&fine)))
+}
+
 fn same_file(a: &CubeInfo, b: &CubeInfo) -> Result<()> {
     if a != b {
         return Err(Error::input(
@@ -387,6 +428,32 @@ mod tests {
                 );
             }
         }
+    }
+
+    #[test]
+    fn in_memory_level_is_the_files_level() {
+        // The in-memory passes agree with the definition, by sorting (as the file
+        // passes do in `histogram_level_agrees_with_sorting`).
+        let values: Vec<f64> = (0..4000)
+            .map(|i| ((i as f64) * 0.37).sin() * (-(i as f64) / 900.0).exp())
+            .collect();
+        let level = enclosing_level(&values, 1, 0, 0.9, Measure::Square)
+            .unwrap()
+            .unwrap();
+        let (hi, lo) = level_by_sorting(&values, Measure::Square, 0.9);
+        assert!(
+            level <= hi * (1.0 + 1e-6) && level >= lo * (1.0 - 1e-6),
+            "{lo} ≤ {level} ≤ {hi}"
+        );
+        // Interleaved: the second of two fields.
+        let two: Vec<f64> = values.iter().flat_map(|&v| [1.0, v]).collect();
+        let again = enclosing_level(&two, 2, 1, 0.9, Measure::Square).unwrap();
+        assert_eq!(again, Some(level));
+        assert_eq!(
+            enclosing_level(&[0.0; 8], 1, 0, 0.9, Measure::Abs).unwrap(),
+            None
+        );
+        assert!(enclosing_level(&values, 1, 0, 1.5, Measure::Abs).is_err());
     }
 
     #[test]
