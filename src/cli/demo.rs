@@ -16,6 +16,8 @@ use lobecast::output::write_bytes;
 const H2_CATION: &str = include_str!("../../examples/h2-cation.toml");
 /// The small π-bonded molecule of part 2 (geometry and its source in the file).
 const ETHYLENE: &str = include_str!("../../examples/ethylene.xyz");
+/// The molecule of the frontier-orbital picture.
+const WATER: &str = include_str!("../../examples/water.xyz");
 
 #[derive(Debug, Args)]
 pub struct DemoArgs {
@@ -69,10 +71,10 @@ fn h2_model(r: f64) -> Result<String> {
 }
 
 fn steps(quick: bool) -> Vec<Step> {
-    let (dr, size, h) = if quick {
-        ("0.25", "500", "0.3")
+    let (dr, size, h, w3) = if quick {
+        ("0.25", "500", "0.3", "800")
     } else {
-        ("0.05", "1000", "0.15")
+        ("0.05", "1000", "0.15", "1500")
     };
     let mut s = vec![
         step(
@@ -163,6 +165,24 @@ fn steps(quick: bool) -> Vec<Step> {
         &format!("slice {eht} --field deformation --plane xy --size {size} --png ethylene-deformation.png"),
     ));
     s.push(step(
+        "3-D orbitals near the equilibrium",
+        &[
+            ("h2plus-r2.5-3d.png", "bonding and antibonding orbitals at R = 2.5 bohr as 3-D surfaces enclosing 90 % of ∫ψ² dV: one lobe around both nuclei, two lobes split by the nodal plane"),
+            ("h2plus-r2.5-orbitals.glb", "the same surfaces as a glTF 2.0 mesh with the molecule, for any 3-D tool (bohr)"),
+        ],
+        &format!("surface models/h2plus-r2.5.toml --panels orbital:1,orbital:2 --view +y --spacing {h} --units bohr --size {w3} --png h2plus-r2.5-3d.png --mesh h2plus-r2.5-orbitals.glb --mesh-molecule"),
+    ));
+    s.push(step(
+        "ethylene π and π* in 3-D",
+        &[("ethylene-pi-3d.png", "ethylene HOMO (π) and LUMO (π*) as 3-D surfaces: two lobes above and below the plane, and the extra nodal plane of π*")],
+        &format!("surface {eht} --panels orbital:homo,orbital:lumo --spacing {h} --units bohr --size {w3} --png ethylene-pi-3d.png"),
+    ));
+    s.push(step(
+        "water frontier orbitals in 3-D",
+        &[("water-frontier-3d.png", "water HOMO−1, HOMO (the out-of-plane lone pair) and LUMO by extended Hückel, one camera")],
+        &format!("surface models/water.xyz --method extended-huckel --panels orbital:homo-1,orbital:homo,orbital:lumo --spacing {h} --units bohr --size {w3} --png water-frontier-3d.png"),
+    ));
+    s.push(step(
         "ethylene cube volumes",
         &[("ethylene.cube", "ethylene HOMO, LUMO, valence density and deformation density for a 3-D viewer (bohr)")],
         &format!("volume {eht} --field orbital:homo --field orbital:lumo --field density --field deformation --spacing {h} --units bohr --out ethylene.cube"),
@@ -181,6 +201,7 @@ pub fn run(args: DemoArgs) -> Result<()> {
     std::fs::create_dir_all(out.join("models"))
         .map_err(|e| Error::input(format!("cannot create the folder {}: {e}", out.display())))?;
     write_bytes(&out.join("models/ethylene.xyz"), &[], ETHYLENE.as_bytes())?;
+    write_bytes(&out.join("models/water.xyz"), &[], WATER.as_bytes())?;
     for r in [1.2, 2.5, 5.0] {
         write_bytes(
             &out.join(format!("models/h2plus-r{r:.1}.toml")),

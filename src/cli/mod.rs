@@ -12,6 +12,8 @@ mod profile;
 mod progress;
 mod slice;
 mod solve;
+mod surface;
+mod surface_figure;
 mod values;
 mod volume;
 
@@ -55,6 +57,9 @@ enum Command {
     Slice(slice::SliceArgs),
     /// Follow fields along a line between atoms or points: CSV and a PNG chart
     Profile(profile::ProfileArgs),
+    /// Draw isosurfaces in 3-D around the molecule (PNG) and write them as meshes
+    /// (glTF, PLY, OBJ)
+    Surface(surface::SurfaceArgs),
 }
 
 /// Runs the program on the process arguments and returns the exit status.
@@ -72,6 +77,7 @@ pub fn main() -> i32 {
         Command::Combine(a) => combine::run(a),
         Command::Slice(a) => slice::run(a),
         Command::Profile(a) => profile::run(a),
+        Command::Surface(a) => surface::run(a),
     };
     match result {
         Ok(()) => 0,

@@ -196,6 +196,18 @@ impl Canvas {
             PremultipliedColorU8::from_rgba(r, g, b, out_a).expect("valid premultiplied colour");
     }
 
+    /// Lays a straight-alpha raster over the canvas with its top-left corner at
+    /// (x0, y0), "over" compositing; what falls outside the canvas is dropped.
+    pub fn paste(&mut self, x0: i32, y0: i32, img: &image::RgbaImage) {
+        for (x, y, p) in img.enumerate_pixels() {
+            let [r, g, b, a] = p.0;
+            if a > 0 {
+                let c = Colour { r, g, b, a };
+                self.blend(x0 + x as i32, y0 + y as i32, c, 1.0);
+            }
+        }
+    }
+
     /// Draws one line of markup at `size` px anchored at (x, y).
     pub fn text(&mut self, s: &str, size: f32, x: f32, y: f32, align: (HAlign, VAlign), c: Colour) {
         let e = text::measure(s, size);

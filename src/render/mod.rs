@@ -7,6 +7,7 @@ pub mod canvas;
 pub mod colorbar;
 pub mod contour;
 pub mod nuclei;
+pub mod picture;
 pub mod scale;
 pub mod scene;
 pub mod slice;

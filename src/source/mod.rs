@@ -9,6 +9,7 @@
 
 pub mod budget;
 pub mod scale;
+pub mod surfaces;
 
 use std::path::{Path, PathBuf};
 
