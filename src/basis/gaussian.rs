@@ -215,6 +215,60 @@ impl GaussianShell {
     }
 }
 
+impl GaussianShell {
+    /// Gradients of every function at every point; `out` is functions × points like
+    /// `values`. Per primitive, ∂/∂x [x^a y^b z^c e^(−αr²)] = (a x^(a−1) − 2α x^(a+1))
+    /// y^b z^c e^(−αr²); summed over primitives this is E ∇M + M E′ r⃗ with
+    /// E = Σ d_k e^(−α_k r²), E′ = −2 Σ α_k d_k e^(−α_k r²) and M the `rows`
+    /// combination of monomials, so the same rows serve values and gradients.
+    pub fn gradients(&self, points: &[[f64; 3]], out: &mut [[f64; 3]]) {
+        let n = points.len();
+        let comps = cartesian_components(self.l);
+        // Per component: the monomial and its three partial derivatives.
+        let mut mono = vec![0.0; comps.len()];
+        let mut dmono = vec![[0.0; 3]; comps.len()];
+        for (p, pt) in points.iter().enumerate() {
+            let r = [
+                pt[0] - self.center[0],
+                pt[1] - self.center[1],
+                pt[2] - self.center[2],
+            ];
+            let r2 = r[0] * r[0] + r[1] * r[1] + r[2] * r[2];
+            let (mut e, mut de) = (0.0, 0.0);
+            for ((a, _), d) in self.primitives.iter().zip(&self.d) {
+                let g = d * (-a * r2).exp();
+                e += g;
+                de -= 2.0 * a * g;
+            }
+            for ((m, dm), c) in mono.iter_mut().zip(dmono.iter_mut()).zip(&comps) {
+                let pw = |i: usize, k: u32| r[i].powi(k as i32);
+                let f = [pw(0, c[0]), pw(1, c[1]), pw(2, c[2])];
+                *m = f[0] * f[1] * f[2];
+                for i in 0..3 {
+                    let deriv = if c[i] == 0 {
+                        0.0
+                    } else {
+                        c[i] as f64 * pw(i, c[i] - 1)
+                    };
+                    let (j, k) = ((i + 1) % 3, (i + 2) % 3);
+                    dm[i] = deriv * f[j] * f[k];
+                }
+            }
+            for (f, row) in self.rows.iter().enumerate() {
+                let mut m = 0.0;
+                let mut dm = [0.0; 3];
+                for ((w, mv), dv) in row.iter().zip(&mono).zip(&dmono) {
+                    m += w * mv;
+                    for i in 0..3 {
+                        dm[i] += w * dv[i];
+                    }
+                }
+                out[f * n + p] = std::array::from_fn(|i| e * dm[i] + de * m * r[i]);
+            }
+        }
+    }
+}
+
 /// Contributions below this (absolute, for functions normalised to 1) are skipped on
 /// a slab or a line; far below the 1e-5 printed precision of a cube file.
 pub const SCREEN: f64 = 1e-17;

@@ -8,7 +8,7 @@ use crate::grid::Slab;
 use crate::solve::OrbitalSet;
 
 #[derive(Debug, Clone)]
-enum Resolved {
+pub(super) enum Resolved {
     Orbital(Vec<f64>),
     OrbitalDensity(Vec<f64>),
     /// Coefficients and the Mulliken gross populations of the orbital.
@@ -24,10 +24,10 @@ enum Resolved {
 /// interleaved: for each point, the value of every field in order.
 #[derive(Debug, Clone)]
 pub struct FieldSampler {
-    shells: Vec<Shell>,
-    offsets: Vec<usize>,
-    nbf: usize,
-    fields: Vec<Resolved>,
+    pub(super) shells: Vec<Shell>,
+    pub(super) offsets: Vec<usize>,
+    pub(super) nbf: usize,
+    pub(super) fields: Vec<Resolved>,
 }
 
 impl FieldSampler {

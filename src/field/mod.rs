@@ -3,6 +3,7 @@
 
 pub mod buildup;
 mod eval;
+mod gradient;
 
 pub use eval::FieldSampler;
 
