@@ -203,6 +203,11 @@ impl ExactField for OneField {
     fn values(&self, points: &[[f64; 3]], out: &mut [f64]) {
         self.0.evaluate(points, out);
     }
+
+    /// The analytic gradient (basis-function derivatives), not differences.
+    fn gradients(&self, points: &[[f64; 3]], out: &mut [[f64; 3]]) {
+        self.0.gradients(points, out);
+    }
 }
 
 /// The smallest step of a grid (bohr), for reports and footnotes.
