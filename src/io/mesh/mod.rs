@@ -19,9 +19,9 @@ use std::path::Path;
 use crate::error::{Error, Result};
 use crate::surface::Mesh;
 
-/// The largest file any mesh writer produces: 2³² bytes, the GLB header's length
-/// field (glTF 2.0 specification, section 4.4.2).
-pub const MAX_FILE_BYTES: u64 = 1 << 32;
+/// The largest file any mesh writer produces: 2³² − 1 bytes, the most the GLB
+/// header's u32 length field can state (glTF 2.0 specification, "GLB File Format").
+pub const MAX_FILE_BYTES: u64 = u32::MAX as u64;
 
 /// The three mesh formats.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
