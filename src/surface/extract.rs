@@ -140,6 +140,13 @@ struct Ctx<'a> {
     slot_delta: [usize; 64],
 }
 
+/// Inside flags of one point layer, and per row 0 (all outside), 1 (all inside) or
+/// 2 (mixed).
+struct Layer {
+    ins: Vec<u8>,
+    rows: Vec<u8>,
+}
+
 /// One slab's output in local numbering: `own` vertices, then those of the next
 /// slab's first in-plane layer (the same ones, in the same order, as it makes).
 #[derive(Default)]
@@ -180,11 +187,33 @@ impl Ctx<'_> {
         })
     }
 
-    fn inside_layer(&self, i: usize, out: &mut [u8]) {
-        let (base, len) = (self.at(i, 0, 0), out.len());
-        for (o, &v) in out.iter_mut().zip(&self.lat.values[base..base + len]) {
+    fn inside_layer(&self, i: usize, out: &mut Layer) {
+        let (base, len) = (self.at(i, 0, 0), out.ins.len());
+        for (o, &v) in out.ins.iter_mut().zip(&self.lat.values[base..base + len]) {
             *o = (self.sign * (v - self.level) >= 0.0) as u8;
         }
+        let nk = self.n[2];
+        for (r, row) in out.rows.iter_mut().zip(out.ins.chunks_exact(nk)) {
+            let inside = row.iter().map(|&x| x as usize).sum::<usize>();
+            *r = if inside == 0 {
+                0
+            } else if inside == nk {
+                1
+            } else {
+                2
+            };
+        }
+    }
+
+    /// Whether rows j and j + 1 of the layers are all inside or all outside: most
+    /// rows are, and then hold no crossing edge.
+    fn uniform(&self, layers: &[&Layer], j: usize) -> bool {
+        let first = layers[0].rows[j];
+        let j1 = (j + 1).min(self.n[1] - 1);
+        first != 2
+            && layers
+                .iter()
+                .all(|l| l.rows[j] == first && l.rows[j1] == first)
     }
 
     /// Adds the vertex on the edge from point q along direction d (bits i, j, k).
@@ -247,9 +276,13 @@ impl Ctx<'_> {
     }
 
     /// Vertices on the edges within point layer i (directions 1, 2, 3).
-    fn in_plane(&self, i: usize, ins: &[u8], idx: &mut [u32], out: &mut Slab) {
+    fn in_plane(&self, i: usize, layer: &Layer, idx: &mut [u32], out: &mut Slab) {
         let [_, nj, nk] = self.n;
+        let ins = &layer.ins[..];
         for j in 0..nj {
+            if self.uniform(&[layer], j) {
+                continue;
+            }
             for k in 0..nk {
                 let p = j * nk + k;
                 let a = ins[p];
@@ -267,9 +300,13 @@ impl Ctx<'_> {
     }
 
     /// Vertices on the edges from point layer i to layer i + 1 (directions 4..7).
-    fn across(&self, i: usize, ins: &[u8], next: &[u8], idx: &mut [u32], out: &mut Slab) {
+    fn across(&self, i: usize, layers: [&Layer; 2], idx: &mut [u32], out: &mut Slab) {
         let [_, nj, nk] = self.n;
+        let (ins, next) = (&layers[0].ins[..], &layers[1].ins[..]);
         for j in 0..nj {
+            if self.uniform(&layers, j) {
+                continue;
+            }
             for k in 0..nk {
                 let p = j * nk + k;
                 let a = ins[p];
@@ -290,10 +327,14 @@ impl Ctx<'_> {
     }
 
     /// Triangles of the cubes between point layers i and i + 1.
-    fn cubes(&self, ins: [&[u8]; 2], idx: [&[u32]; 2], out: &mut Slab) {
+    fn cubes(&self, layers: [&Layer; 2], idx: [&[u32]; 2], out: &mut Slab) {
         let [_, nj, nk] = self.n;
         let cases = &*CASES;
+        let ins = layers.map(|l| &l.ins[..]);
         for j in 0..nj - 1 {
+            if self.uniform(&layers, j) {
+                continue;
+            }
             for k in 0..nk - 1 {
                 let p = j * nk + k;
                 let corners = [p, p + 1, p + nk, p + nk + 1];
@@ -325,13 +366,17 @@ impl Ctx<'_> {
     fn slab(&self, a: usize, b: usize, total: &AtomicUsize) -> Result<Slab> {
         let plane = self.n[1] * self.n[2];
         let mut out = Slab::default();
-        let (mut ins, mut ins_next) = (vec![0u8; plane], vec![0u8; plane]);
+        let layer = || Layer {
+            ins: vec![0; plane],
+            rows: vec![0; self.n[1]],
+        };
+        let (mut ins, mut ins_next) = (layer(), layer());
         let (mut idx, mut idx_next) = (vec![0u32; 7 * plane], vec![0u32; 7 * plane]);
         self.inside_layer(a, &mut ins);
         self.in_plane(a, &ins, &mut idx, &mut out);
         for i in a..b {
             self.inside_layer(i + 1, &mut ins_next);
-            self.across(i, &ins, &ins_next, &mut idx, &mut out);
+            self.across(i, [&ins, &ins_next], &mut idx, &mut out);
             if i + 1 == b && b + 1 < self.n[0] {
                 out.own = out.positions.len();
             }
