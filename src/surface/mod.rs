@@ -8,6 +8,7 @@
 
 pub mod extract;
 pub mod measure;
+pub mod place;
 pub mod shapes;
 
 /// An indexed triangle mesh with shared (welded) vertices.
