@@ -51,13 +51,27 @@ fn pz_lobes_have_their_phase_colour_and_place() {
     write_file(dir.path(), "pz.json", P_Z);
     let report = ok(
         dir.path(),
-        &["surface", "pz.json", "--field", "orbital:1", "--view", "+x", "--title", "p", "--png", "pz.png"],
+        &[
+            "surface",
+            "pz.json",
+            "--field",
+            "orbital:1",
+            "--view",
+            "+x",
+            "--title",
+            "p",
+            "--png",
+            "pz.png",
+        ],
     );
     assert!(report.contains("closed"), "{report}");
     let (px, w, h, ppm, comment) = decode(&dir.path().join("pz.png"));
     // 300 dpi = 11811 px/m (PNG spec: pixels per metre); the command line is kept.
     assert_eq!(ppm, 11811);
-    assert!(comment.contains("surface pz.json --field orbital:1"), "{comment}");
+    assert!(
+        comment.contains("surface pz.json --field orbital:1"),
+        "{comment}"
+    );
     let (mut orange_rows, mut purple_rows) = (Vec::new(), Vec::new());
     for y in 0..h {
         for x in 0..w {
@@ -69,9 +83,17 @@ fn pz_lobes_have_their_phase_colour_and_place() {
             }
         }
     }
-    assert!(orange_rows.len() > 1000 && purple_rows.len() > 1000, "{} {}", orange_rows.len(), purple_rows.len());
+    assert!(
+        orange_rows.len() > 1000 && purple_rows.len() > 1000,
+        "{} {}",
+        orange_rows.len(),
+        purple_rows.len()
+    );
     let mean = |v: &[u32]| v.iter().map(|&y| y as f64).sum::<f64>() / v.len() as f64;
-    assert!(mean(&orange_rows) + 50.0 < mean(&purple_rows), "positive lobe above the negative one");
+    assert!(
+        mean(&orange_rows) + 50.0 < mean(&purple_rows),
+        "positive lobe above the negative one"
+    );
 }
 
 /// The report's area equals the mesh file's; the default isovalue is the one
@@ -83,12 +105,28 @@ fn enclosed_fraction_level_matches_inspect() {
     let model = model.to_str().unwrap();
     ok(
         dir.path(),
-        &["volume", model, "--field", "orbital:2", "--spacing", "0.25", "--units", "bohr", "--out", "a.cube"],
+        &[
+            "volume",
+            model,
+            "--field",
+            "orbital:2",
+            "--spacing",
+            "0.25",
+            "--units",
+            "bohr",
+            "--out",
+            "a.cube",
+        ],
     );
     let inspected = ok(dir.path(), &["inspect", "a.cube", "--json"]);
     let json: serde_json::Value = serde_json::from_str(&inspected).unwrap();
     let theirs = json["fields"][0]["isovalue"].as_f64().unwrap();
-    let report = ok(dir.path(), &["surface", "a.cube", "--field", "stored:1", "--mesh", "a.obj"]);
+    let report = ok(
+        dir.path(),
+        &[
+            "surface", "a.cube", "--field", "stored:1", "--mesh", "a.obj",
+        ],
+    );
     let ours: f64 = report
         .split("isovalue ±")
         .nth(1)
@@ -97,11 +135,22 @@ fn enclosed_fraction_level_matches_inspect() {
         .parse()
         .unwrap();
     // The report prints five significant digits.
-    assert!((ours - theirs).abs() <= 1e-4 * theirs, "surface {ours} vs inspect {theirs}");
+    assert!(
+        (ours - theirs).abs() <= 1e-4 * theirs,
+        "surface {ours} vs inspect {theirs}"
+    );
     assert!(report.contains("enclosing 90.0 %"), "{report}");
     let obj = std::fs::read_to_string(dir.path().join("a.obj")).unwrap();
-    assert!(obj.lines().any(|l| l.starts_with("# ") && l.contains("bohr")), "the OBJ states its unit");
-    assert_eq!(report.matches(", closed").count(), 2, "two closed lobes: {report}");
+    assert!(
+        obj.lines()
+            .any(|l| l.starts_with("# ") && l.contains("bohr")),
+        "the OBJ states its unit"
+    );
+    assert_eq!(
+        report.matches(", closed").count(),
+        2,
+        "two closed lobes: {report}"
+    );
 }
 
 /// Panels: one picture, one camera, three captions; the mesh file holds every
@@ -113,10 +162,24 @@ fn panels_and_transparent_background() {
     let report = ok(
         dir.path(),
         &[
-            "surface", water.to_str().unwrap(), "--method", "extended-huckel",
-            "--panels", "orbital:homo-1,orbital:homo,orbital:lumo", "--spacing", "0.3",
-            "--units", "bohr", "--size", "900,400", "--background", "transparent",
-            "--png", "w.png", "--mesh", "w.ply",
+            "surface",
+            water.to_str().unwrap(),
+            "--method",
+            "extended-huckel",
+            "--panels",
+            "orbital:homo-1,orbital:homo,orbital:lumo",
+            "--spacing",
+            "0.3",
+            "--units",
+            "bohr",
+            "--size",
+            "900,400",
+            "--background",
+            "transparent",
+            "--png",
+            "w.png",
+            "--mesh",
+            "w.ply",
         ],
     );
     let (px, w, h, _, _) = decode(&dir.path().join("w.png"));

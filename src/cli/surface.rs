@@ -42,11 +42,21 @@ pub struct SurfaceArgs {
     pub panels: Option<String>,
     /// Isovalue in the field's unit (bohr^-3/2 for orbitals, e/bohr^3 for densities);
     /// signed fields get surfaces at +T and −T
-    #[arg(long, value_name = "T", conflicts_with = "enclose", allow_negative_numbers = true)]
+    #[arg(
+        long,
+        value_name = "T",
+        conflicts_with = "enclose",
+        allow_negative_numbers = true
+    )]
     pub iso: Option<f64>,
     /// Choose the isovalue whose surfaces enclose this fraction of the field's measure
     /// (∫f² for signed fields, ∫|f| for densities), as `inspect` does
-    #[arg(long, value_name = "F", default_value_t = 0.90, allow_negative_numbers = true)]
+    #[arg(
+        long,
+        value_name = "F",
+        default_value_t = 0.90,
+        allow_negative_numbers = true
+    )]
     pub enclose: f64,
     /// Output picture (PNG)
     #[arg(long, value_name = "FILE", required_unless_present = "mesh")]
@@ -112,14 +122,26 @@ pub fn run(args: SurfaceArgs) -> Result<()> {
     let started = Instant::now();
     let meta = args.figure.meta(args.title.clone())?;
     let request = read_request(&args)?;
-    let source = Source::load_for(&args.source, &args.xyz.options()?, Some(&request.fields), args.memory.memory)?;
+    let source = Source::load_for(
+        &args.source,
+        &args.xyz.options()?,
+        Some(&request.fields),
+        args.memory.memory,
+    )?;
     let mut plan = OutputPlan::new(source.inputs());
     let png_slot = plan.add_opt(args.png.as_deref(), true)?;
     let mesh_slot = plan.add_opt(args.mesh.as_deref(), true)?;
     let orientation = request.view.orientation(source.molecule())?;
     let grid = grid_for(&args, &source)?;
     let mut timings = Timings::default();
-    let found = surfaces_of(&source, &request.fields, &grid, request.isovalue, args.memory.memory, &mut timings)?;
+    let found = surfaces_of(
+        &source,
+        &request.fields,
+        &grid,
+        request.isovalue,
+        args.memory.memory,
+        &mut timings,
+    )?;
     let drawn: Drawn = draw(&args, &request, &source, &found, &orientation, &grid, meta)?;
     let mut out = plan.open()?;
     if let (Some(slot), Some(bytes)) = (png_slot, &drawn.png) {
@@ -146,13 +168,18 @@ fn read_request(args: &SurfaceArgs) -> Result<Request> {
         .map(Field::parse)
         .collect::<Result<Vec<_>>>()?;
     if fields.is_empty() || fields.len() > MAX_PANELS {
-        return Err(Error::input(format!("{option} takes 1 to {MAX_PANELS} fields, got {}", fields.len())));
+        return Err(Error::input(format!(
+            "{option} takes 1 to {MAX_PANELS} fields, got {}",
+            fields.len()
+        )));
     }
     let isovalue = match args.iso {
         Some(t) if t.is_finite() && t > 0.0 => Isovalue::Fixed(t),
         Some(t) => {
-            return Err(Error::input(format!("--iso must be a positive value, got {}", shown(t)))
-                .with_hint("signed fields get surfaces at +T and −T from one positive T"));
+            return Err(
+                Error::input(format!("--iso must be a positive value, got {}", shown(t)))
+                    .with_hint("signed fields get surfaces at +T and −T from one positive T"),
+            );
         }
         None if args.enclose > 0.0 && args.enclose < 1.0 => Isovalue::Enclosing(args.enclose),
         None => {
@@ -163,7 +190,10 @@ fn read_request(args: &SurfaceArgs) -> Result<Request> {
         }
     };
     if !(args.opacity.is_finite() && (MIN_OPACITY..=1.0).contains(&args.opacity)) {
-        return Err(Error::input(format!("--opacity takes {MIN_OPACITY} to 1, got {}", shown(args.opacity))));
+        return Err(Error::input(format!(
+            "--opacity takes {MIN_OPACITY} to 1, got {}",
+            shown(args.opacity)
+        )));
     }
     let size = parse_size(args.size.as_deref())?;
     let spec: ViewSpec = args.view.parse()?;
@@ -171,10 +201,24 @@ fn read_request(args: &SurfaceArgs) -> Result<Request> {
         Some(t) => parse_turn(t)?,
         None => [0.0, 0.0],
     };
-    let view = View { spec, turn_deg, perspective: args.perspective };
-    let mesh = args.mesh.as_deref().map(MeshFormat::from_path).transpose()?;
+    let view = View {
+        spec,
+        turn_deg,
+        perspective: args.perspective,
+    };
+    let mesh = args
+        .mesh
+        .as_deref()
+        .map(MeshFormat::from_path)
+        .transpose()?;
     check_lengths(args)?;
-    Ok(Request { fields, isovalue, size, view, mesh })
+    Ok(Request {
+        fields,
+        isovalue,
+        size,
+        view,
+        mesh,
+    })
 }
 
 fn parse_size(text: Option<&str>) -> Result<(u32, Option<u32>)> {
@@ -184,21 +228,33 @@ fn parse_size(text: Option<&str>) -> Result<(u32, Option<u32>)> {
     let (lo, hi) = SIZE_RANGE;
     let mut parts = text.split(',');
     let w = parse_count("--size", parts.next().unwrap_or(""), lo, hi)? as u32;
-    let h = parts.next().map(|h| parse_count("--size", h, lo, hi)).transpose()?.map(|h| h as u32);
+    let h = parts
+        .next()
+        .map(|h| parse_count("--size", h, lo, hi))
+        .transpose()?
+        .map(|h| h as u32);
     if parts.next().is_some() {
-        return Err(Error::input(format!("--size takes W or W,H in pixels, got {text:?}")));
+        return Err(Error::input(format!(
+            "--size takes W or W,H in pixels, got {text:?}"
+        )));
     }
     Ok((w, h))
 }
 
 fn parse_turn(text: &str) -> Result<[f64; 2]> {
-    let bad = || Error::input(format!("--turn takes two angles in degrees, A,B, got {text:?}"));
+    let bad = || {
+        Error::input(format!(
+            "--turn takes two angles in degrees, A,B, got {text:?}"
+        ))
+    };
     let parts: Vec<f64> = text
         .split(',')
         .map(|p| p.trim().parse::<f64>().map_err(|_| bad()))
         .collect::<Result<_>>()?;
     match parts[..] {
-        [a, b] if a.is_finite() && b.is_finite() && a.abs() <= 3600.0 && b.abs() <= 3600.0 => Ok([a, b]),
+        [a, b] if a.is_finite() && b.is_finite() && a.abs() <= 3600.0 && b.abs() <= 3600.0 => {
+            Ok([a, b])
+        }
         _ => Err(bad()),
     }
 }
@@ -208,12 +264,18 @@ fn check_lengths(args: &SurfaceArgs) -> Result<()> {
     if let Some(h) = args.spacing
         && !(h.is_finite() && h > 0.0)
     {
-        return Err(Error::input(format!("--spacing must be a positive length, got {} {unit}", shown(h))));
+        return Err(Error::input(format!(
+            "--spacing must be a positive length, got {} {unit}",
+            shown(h)
+        )));
     }
     if let Some(p) = args.padding
         && !(p.is_finite() && p >= 0.0)
     {
-        return Err(Error::input(format!("--padding must be zero or a positive length, got {} {unit}", shown(p))));
+        return Err(Error::input(format!(
+            "--padding must be zero or a positive length, got {} {unit}",
+            shown(p)
+        )));
     }
     Ok(())
 }
@@ -230,9 +292,15 @@ fn grid_for(args: &SurfaceArgs, source: &Source) -> Result<GridBox> {
         )),
         Source::Volume { volume, .. } => Ok(volume.info.header.grid.clone()),
         Source::Orbitals { set, .. } => {
-            let padding = args.padding.map_or(super::volume::DEFAULT_PADDING_BOHR, |p| args.units.to_bohr(p));
+            let padding = args
+                .padding
+                .map_or(super::volume::DEFAULT_PADDING_BOHR, |p| {
+                    args.units.to_bohr(p)
+                });
             let resolution = match (args.spacing, args.points.as_deref()) {
-                (_, Some(n)) => Resolution::Points(parse_count("--points", n, 2, MAX_POINTS_PER_EDGE)? as usize),
+                (_, Some(n)) => {
+                    Resolution::Points(parse_count("--points", n, 2, MAX_POINTS_PER_EDGE)? as usize)
+                }
                 (Some(h), None) => Resolution::Spacing(args.units.to_bohr(h)),
                 (None, None) => Resolution::Spacing(super::volume::DEFAULT_SPACING_BOHR),
             };
@@ -255,7 +323,11 @@ fn report(
     say!(
         "grid {nx}×{ny}×{nz} points at {:.4} bohr spacing ({}); sampling {:.2} s, extraction {:.2} s, drawing {:.2} s, total {:.2} s",
         lobecast::source::surfaces::spacing(grid),
-        if source.has_box() { "the cube file's own grid" } else { "vertices on the exact field" },
+        if source.has_box() {
+            "the cube file's own grid"
+        } else {
+            "vertices on the exact field"
+        },
         timings.sampling.as_secs_f64(),
         timings.extraction.as_secs_f64(),
         drawn.seconds,
@@ -270,7 +342,7 @@ fn report(
             f.measure_text()
         );
         for s in &f.surfaces {
-            let m = lobecast::surface::measure::measures(&s.mesh);
+            let m = lobecast::surface::measure::measure(&s.mesh)?;
             say!(
                 "    f = {:+.4e}: {} triangles, {} vertices, area {:.4} bohr², enclosed volume {:.4} bohr³{}",
                 s.level,
@@ -278,11 +350,17 @@ fn report(
                 s.mesh.positions.len(),
                 m.area,
                 m.volume,
-                if s.open_edges > 0 { " — open where it meets the box" } else { ", closed" }
+                if s.open_edges > 0 {
+                    " — open where it meets the box"
+                } else {
+                    ", closed"
+                }
             );
         }
         if f.surfaces.iter().any(|s| s.open_edges > 0) {
-            say!("    note: the surface reaches the edge of the box and is cut open there; a larger --padding closes it");
+            say!(
+                "    note: the surface reaches the edge of the box and is cut open there; a larger --padding closes it"
+            );
         }
     }
     Ok(())

@@ -50,14 +50,26 @@ pub fn draw(
 ) -> Result<Drawn> {
     let started = Instant::now();
     let png = match &args.png {
-        Some(_) => Some(picture(args, request, source, found, orientation, grid, meta)?),
+        Some(_) => Some(picture(
+            args,
+            request,
+            source,
+            found,
+            orientation,
+            grid,
+            meta,
+        )?),
         None => None,
     };
     let mesh = match request.mesh {
         Some(format) => Some(mesh_file(args, source, found, format)?),
         None => None,
     };
-    Ok(Drawn { png, mesh, seconds: started.elapsed().as_secs_f64() })
+    Ok(Drawn {
+        png,
+        mesh,
+        seconds: started.elapsed().as_secs_f64(),
+    })
 }
 
 fn picture(
@@ -76,7 +88,11 @@ fn picture(
             surfaces: f
                 .surfaces
                 .iter()
-                .map(|s| Painted { mesh: &s.mesh, rgb: phase_rgb(s.phase), opacity: args.opacity })
+                .map(|s| Painted {
+                    mesh: &s.mesh,
+                    rgb: phase_rgb(s.phase),
+                    opacity: args.opacity,
+                })
                 .collect(),
             balls: balls.clone(),
             sticks: sticks.clone(),
@@ -85,12 +101,20 @@ fn picture(
     let furniture = furniture(args, request, source, found, grid);
     let (w, h) = request.size;
     let l = layout(w, h, found.len(), &furniture);
-    let camera = frame_all(&scenes, orientation, request.view.perspective, l.panel.0 as f64 / l.panel.1 as f64);
+    let camera = frame_all(
+        &scenes,
+        orientation,
+        request.view.perspective,
+        l.panel.0 as f64 / l.panel.1 as f64,
+    );
     let background = match args.background {
         Background::White => Some([255, 255, 255]),
         Background::Transparent => None,
     };
-    let panels: Vec<_> = scenes.iter().map(|s| render(s, &camera, l.panel.0, l.panel.1, background)).collect();
+    let panels: Vec<_> = scenes
+        .iter()
+        .map(|s| render(s, &camera, l.panel.0, l.panel.1, background))
+        .collect();
     let canvas = compose(&l, &panels, &furniture);
     if meta.title.is_none() && !furniture.title.is_empty() {
         meta.title = Some(furniture.title.clone());
@@ -98,7 +122,13 @@ fn picture(
     canvas.encode_png(&meta)
 }
 
-fn furniture(args: &SurfaceArgs, request: &Request, source: &Source, found: &[FieldSurfaces], grid: &GridBox) -> Furniture {
+fn furniture(
+    args: &SurfaceArgs,
+    request: &Request,
+    source: &Source,
+    found: &[FieldSurfaces],
+    grid: &GridBox,
+) -> Furniture {
     let title = args.title.clone().unwrap_or_else(|| {
         if found.len() == 1 {
             found[0].info.heading.clone()
@@ -110,7 +140,11 @@ fn furniture(args: &SurfaceArgs, request: &Request, source: &Source, found: &[Fi
         .iter()
         .map(|f| {
             let sign = if f.info.signed { "±" } else { "" };
-            let head = if found.len() == 1 { f.info.quantity.clone() } else { f.info.short.clone() };
+            let head = if found.len() == 1 {
+                f.info.quantity.clone()
+            } else {
+                f.info.short.clone()
+            };
             format!("{head}; isovalue {sign}{} {}", number(f.level), f.info.unit)
         })
         .collect();
@@ -122,7 +156,10 @@ fn furniture(args: &SurfaceArgs, request: &Request, source: &Source, found: &[Fi
             (phase_rgb(Phase::Negative), format!("{family} < 0")),
         ]
     } else {
-        vec![(phase_rgb(Phase::Positive), format!("{family} above the isovalue inside"))]
+        vec![(
+            phase_rgb(Phase::Positive),
+            format!("{family} above the isovalue inside"),
+        )]
     };
     let how = match request.isovalue {
         Isovalue::Enclosing(fr) => format!(
@@ -138,7 +175,10 @@ fn furniture(args: &SurfaceArgs, request: &Request, source: &Source, found: &[Fi
         }
     };
     let grid_note = if source.has_box() {
-        format!("Surfaces from the cube file's own grid ({:.3} bohr spacing), trilinear between points.", spacing(grid))
+        format!(
+            "Surfaces from the cube file's own grid ({:.3} bohr spacing), trilinear between points.",
+            spacing(grid)
+        )
     } else {
         format!(
             "Grid spacing {:.3} bohr; vertices placed on the exact field and normals from its gradient.",
@@ -191,17 +231,40 @@ fn mesh_file(
             });
         }
     }
-    let shapes = if args.mesh_molecule { molecule_meshes(source) } else { Vec::new() };
+    let shapes = if args.mesh_molecule {
+        molecule_meshes(source)
+    } else {
+        Vec::new()
+    };
     let molecule = shapes
         .iter()
-        .map(|(name, mesh, rgb)| Part { name: name.clone(), mesh, rgb: *rgb, opacity: 1.0 })
+        .map(|(name, mesh, rgb)| Part {
+            name: name.clone(),
+            mesh,
+            rgb: *rgb,
+            opacity: 1.0,
+        })
         .collect();
     let description = found
         .iter()
-        .map(|f| format!("{} at ±{:.4e} {}", f.info.plain, f.level, f.info.unit.replace(['{', '}'], "")))
+        .map(|f| {
+            format!(
+                "{} at ±{:.4e} {}",
+                f.info.plain,
+                f.level,
+                f.info.unit.replace(['{', '}'], "")
+            )
+        })
         .collect::<Vec<_>>()
         .join("; ");
-    encode(format, &MeshDocument { surfaces, molecule, description })
+    encode(
+        format,
+        &MeshDocument {
+            surfaces,
+            molecule,
+            description,
+        },
+    )
 }
 
 /// Ball-and-stick shapes as meshes, with the picture's sizes and colours.
@@ -209,12 +272,24 @@ fn molecule_meshes(source: &Source) -> Vec<(String, lobecast::surface::Mesh, [u8
     let (balls, sticks) = ball_and_stick(source.molecule());
     let mut out = Vec::new();
     for (i, (b, atom)) in balls.iter().zip(&source.molecule().atoms).enumerate() {
-        out.push((format!("atom {} {}", i + 1, atom.element.symbol), shapes::sphere(b.centre, b.radius, 3), b.rgb));
+        out.push((
+            format!("atom {} {}", i + 1, atom.element.symbol),
+            shapes::sphere(b.centre, b.radius, 3),
+            b.rgb,
+        ));
     }
     for (i, s) in sticks.iter().enumerate() {
         let mid = std::array::from_fn(|d| 0.5 * (s.a[d] + s.b[d]));
-        out.push((format!("bond {} half 1", i + 1), shapes::cylinder(s.a, mid, s.radius, 24), s.rgb_a));
-        out.push((format!("bond {} half 2", i + 1), shapes::cylinder(mid, s.b, s.radius, 24), s.rgb_b));
+        out.push((
+            format!("bond {} half 1", i + 1),
+            shapes::cylinder(s.a, mid, s.radius, 24),
+            s.rgb_a,
+        ));
+        out.push((
+            format!("bond {} half 2", i + 1),
+            shapes::cylinder(mid, s.b, s.radius, 24),
+            s.rgb_b,
+        ));
     }
     out
 }

@@ -45,7 +45,11 @@ pub struct Layout {
 
 fn sizes(width: u32) -> (f32, f32, f32) {
     let w = width as f32;
-    ((w / 42.0).clamp(14.0, 48.0), (w / 52.0).clamp(12.0, 40.0), (w / 68.0).clamp(10.0, 30.0))
+    (
+        (w / 42.0).clamp(14.0, 48.0),
+        (w / 52.0).clamp(12.0, 40.0),
+        (w / 68.0).clamp(10.0, 30.0),
+    )
 }
 
 /// Lays out `n` panels in a picture `width` wide; `height` (when given) is the whole
@@ -60,17 +64,27 @@ pub fn layout(width: u32, height: Option<u32>, n: usize, furniture: &Furniture) 
         .iter()
         .flat_map(|f| text::wrap(f, note_size, width as f32 - 2.0 * margin))
         .collect();
-    let top = if furniture.title.is_empty() { margin * 0.5 } else { title_size * 2.2 };
+    let top = if furniture.title.is_empty() {
+        margin * 0.5
+    } else {
+        title_size * 2.2
+    };
     let per_row_text = caption_size * 1.8;
-    let bottom = (if furniture.key.is_empty() { 0.0 } else { caption_size * 2.0 })
-        + notes.len() as f32 * note_size * 1.35
+    let bottom = (if furniture.key.is_empty() {
+        0.0
+    } else {
+        caption_size * 2.0
+    }) + notes.len() as f32 * note_size * 1.35
         + margin * 0.6;
     let panel_w = ((width as f32 - margin) / columns as f32).floor().max(16.0);
     let panel_h = match height {
-        Some(h) => ((h as f32 - top - bottom) / rows as f32 - per_row_text).floor().max(16.0),
+        Some(h) => ((h as f32 - top - bottom) / rows as f32 - per_row_text)
+            .floor()
+            .max(16.0),
         None => (panel_w * 0.75).floor(),
     };
-    let total_h = height.unwrap_or((top + rows as f32 * (panel_h + per_row_text) + bottom).ceil() as u32);
+    let total_h =
+        height.unwrap_or((top + rows as f32 * (panel_h + per_row_text) + bottom).ceil() as u32);
     let left = ((width as f32 - columns as f32 * panel_w) / 2.0).floor();
     let origins = (0..n)
         .map(|i| {
@@ -100,23 +114,51 @@ pub fn compose(l: &Layout, panels: &[RgbaImage], f: &Furniture) -> Canvas {
     let mut c = Canvas::new(l.width, l.height, f.background);
     let centre = l.width as f32 / 2.0;
     if !f.title.is_empty() {
-        c.text(&f.title, l.title_size, centre, l.top * 0.5, (HAlign::Centre, VAlign::Middle), Colour::INK);
+        c.text(
+            &f.title,
+            l.title_size,
+            centre,
+            l.top * 0.5,
+            (HAlign::Centre, VAlign::Middle),
+            Colour::INK,
+        );
     }
     for ((img, &(x, y)), caption) in panels.iter().zip(&l.origins).zip(&f.captions) {
         c.paste(x as i32, y as i32, img);
         let cx = x as f32 + l.panel.0 as f32 / 2.0;
         let cy = y as f32 + l.panel.1 as f32 + l.caption_size * 0.9;
         let size = fitted(caption, l.caption_size, l.panel.0 as f32 * 0.96);
-        c.text(caption, size, cx, cy, (HAlign::Centre, VAlign::Middle), Colour::INK);
+        c.text(
+            caption,
+            size,
+            cx,
+            cy,
+            (HAlign::Centre, VAlign::Middle),
+            Colour::INK,
+        );
     }
-    let mut y = l.top + l.rows as f32 * (l.panel.1 as f32 + l.caption_size * 1.8) + l.caption_size * 0.4;
+    let mut y =
+        l.top + l.rows as f32 * (l.panel.1 as f32 + l.caption_size * 1.8) + l.caption_size * 0.4;
     if !f.key.is_empty() {
-        key(&mut c, &f.key, l.caption_size, centre, y + l.caption_size * 0.5);
+        key(
+            &mut c,
+            &f.key,
+            l.caption_size,
+            centre,
+            y + l.caption_size * 0.5,
+        );
         y += l.caption_size * 2.0;
     }
     let margin = (l.note_size * 1.5).round();
     for line in &l.notes {
-        c.text(line, l.note_size, margin, y + l.note_size, (HAlign::Left, VAlign::Baseline), Colour::GREY);
+        c.text(
+            line,
+            l.note_size,
+            margin,
+            y + l.note_size,
+            (HAlign::Left, VAlign::Baseline),
+            Colour::GREY,
+        );
         y += l.note_size * 1.35;
     }
     c
@@ -125,7 +167,11 @@ pub fn compose(l: &Layout, panels: &[RgbaImage], f: &Furniture) -> Canvas {
 /// The largest size up to `size` at which `s` fits `width`.
 fn fitted(s: &str, size: f32, width: f32) -> f32 {
     let w = text::measure(s, size).width;
-    if w <= width { size } else { (size * width / w).max(8.0) }
+    if w <= width {
+        size
+    } else {
+        (size * width / w).max(8.0)
+    }
 }
 
 /// Swatches and labels in one centred row.
@@ -142,7 +188,14 @@ fn key(c: &mut Canvas, entries: &[([u8; 3], String)], size: f32, centre: f32, y:
         let colour = Colour::rgb(rgb[0], rgb[1], rgb[2]);
         c.fill_rect(x, y - swatch / 2.0, swatch, swatch, colour);
         c.stroke_rect(x, y - swatch / 2.0, swatch, swatch, 1.0, Colour::GREY);
-        c.text(label, size, x + swatch + size * 0.4, y, (HAlign::Left, VAlign::Middle), Colour::INK);
+        c.text(
+            label,
+            size,
+            x + swatch + size * 0.4,
+            y,
+            (HAlign::Left, VAlign::Middle),
+            Colour::INK,
+        );
         x += w + gap;
     }
 }
@@ -171,7 +224,10 @@ mod tests {
                 assert_eq!(l.height, h);
             }
             for (i, &(x, y)) in l.origins.iter().enumerate() {
-                assert!(x + l.panel.0 <= l.width && y + l.panel.1 <= l.height, "panel {i} inside");
+                assert!(
+                    x + l.panel.0 <= l.width && y + l.panel.1 <= l.height,
+                    "panel {i} inside"
+                );
                 for &(x2, y2) in &l.origins[i + 1..] {
                     let apart = x2 >= x + l.panel.0 || y2 >= y + l.panel.1;
                     assert!(apart, "panels {i} and a later one overlap");

@@ -13,7 +13,8 @@ use crate::error::{Error, Result};
 use crate::field::{Field, FieldSampler};
 use crate::grid::{GridBox, sample_all};
 use crate::io::cube::stats::{Measure, enclosing_level};
-use crate::surface::extract::{ExactField, Lattice, extract, place_exactly};
+use crate::surface::extract::{Lattice, extract};
+use crate::surface::place::{ExactField, place_exactly};
 use crate::surface::{Phase, Surface};
 
 /// How the isovalue is chosen.
@@ -104,8 +105,12 @@ fn one_field(
     let largest = values.iter().fold(0.0f64, |m, v| m.max(v.abs()));
     let level = match isovalue {
         Isovalue::Fixed(t) => t.abs(),
-        Isovalue::Enclosing(f) => enclosing_level(&values, 1, 0, f, measure)?
-            .ok_or_else(|| Error::input(format!("{} is zero everywhere on the grid: there is no surface to draw", info.plain)))?,
+        Isovalue::Enclosing(f) => enclosing_level(&values, 1, 0, f, measure)?.ok_or_else(|| {
+            Error::input(format!(
+                "{} is zero everywhere on the grid: there is no surface to draw",
+                info.plain
+            ))
+        })?,
     };
     if !(level > 0.0 && level.is_finite()) {
         return Err(Error::input(format!(
@@ -128,7 +133,10 @@ fn one_field(
         values: &values,
     };
     let exact = match source {
-        Source::Orbitals { set, .. } => Some(OneField(FieldSampler::new(set, std::slice::from_ref(field))?)),
+        Source::Orbitals { set, .. } => Some(OneField(FieldSampler::new(
+            set,
+            std::slice::from_ref(field),
+        )?)),
         Source::Volume { .. } => None,
     };
     let phases: &[Phase] = if info.signed {
@@ -138,7 +146,11 @@ fn one_field(
     };
     let mut surfaces = Vec::new();
     for &phase in phases {
-        let signed_level = if phase == Phase::Positive { level } else { -level };
+        let signed_level = if phase == Phase::Positive {
+            level
+        } else {
+            -level
+        };
         let mut ex = extract(&lattice, signed_level, phase)?;
         if ex.mesh.is_empty() {
             continue;
