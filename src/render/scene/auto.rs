@@ -5,14 +5,17 @@
 //! principal axes, common practice). Eigenvalues within 0.1 % of the largest
 //! (plus 1e-12 bohr², for a single atom) count as tied; within a tied set the axis
 //! is the one nearest x, then y, then z. The camera takes the side of that axis
-//! from which screen up leans to +z (then +y, +x). So a planar molecule is seen
-//! face-on before the turn, a linear one side-on, a single atom like the `+x` view.
+//! from which, after the turn below, screen up leans to +z (then +y, +x). So a
+//! planar molecule is seen face-on before the turn, a linear one side-on, a single
+//! atom like the `+x` view.
 //!
-//! `DEFAULT_TURN_DEG` tilts the camera 35° about the screen horizontal — the axis
-//! of largest spread — and nothing about the vertical: a planar molecule is then
-//! seen 35° off its normal, so both its ring and lobes perpendicular to it show
-//! (sin 35° ≈ 0.57 of their length), while a linear molecule, whose axis is the
-//! horizontal, stays exactly side-on and π lobes pointing at the camera swing clear.
+//! `DEFAULT_TURN_DEG` = [−45°, 0°] then orbits the camera about the screen
+//! horizontal — the axis of largest spread — only. A linear molecule, whose axis
+//! that is, stays exactly side-on while lobes pointing at the camera swing clear
+//! (π lobes in both directions show at sin 45° ≈ 0.71 of their length). A planar
+//! molecule is seen from 45° above its plane: ring and perpendicular lobes are
+//! foreshortened alike (0.71), from the side that puts +z up: for a molecule in
+//! the xy plane, from above, with the lobes on +z above the ring.
 
 use nalgebra::{Matrix3, SymmetricEigen};
 
@@ -21,7 +24,7 @@ use super::view::Orientation;
 use crate::chem::Molecule;
 
 /// Orbit applied after the principal-axis view, [about horizontal, about vertical].
-pub const DEFAULT_TURN_DEG: [f64; 2] = [35.0, 0.0];
+pub const DEFAULT_TURN_DEG: [f64; 2] = [-45.0, 0.0];
 
 /// Relative tolerance under which two spreads count as equal.
 const TIE: f64 = 1e-3;
@@ -59,12 +62,15 @@ pub fn orientation(molecule: &Molecule) -> Orientation {
     };
     let view_axis = pick(&tied(pairs[0].0), None);
     let across = pick(&tied(pairs[2].0), Some(view_axis));
-    // up = right × forward; the camera takes the side that makes up lean to +z
-    // (then +y, then +x), so lobes above the molecule appear above it.
+    // up = right × forward. The camera takes the side of the view axis from which,
+    // after the default turn, screen up leans to +z (then +y, then +x): lobes on
+    // the +z side of the molecule appear above it.
     let mut forward = scale(view_axis, -1.0);
     let mut up = cross(across, forward);
-    if let Some(k) = [2, 1, 0].into_iter().find(|&k| up[k].abs() > 1e-9) {
-        if up[k] < 0.0 {
+    let (sin, cos) = DEFAULT_TURN_DEG[0].to_radians().sin_cos();
+    let turned_up = super::vec3::add(scale(up, cos), scale(forward, sin));
+    if let Some(k) = [2, 1, 0].into_iter().find(|&k| turned_up[k].abs() > 1e-9) {
+        if turned_up[k] < 0.0 {
             forward = scale(forward, -1.0);
             up = scale(up, -1.0);
         }

@@ -5,17 +5,19 @@
 //! from the eye, which sits `distance` in front of `centre`. A point projects onto
 //! the screen plane through `centre`: unchanged in x, y for orthographic views,
 //! scaled by distance / z in perspective. `offset` and `half_height` then place that
-//! plane in the image. The eye distance is `PERSPECTIVE_DISTANCE` times the radius
-//! of the sphere holding everything, a gentle perspective (about 30° across the
-//! longest side, common practice for figures) that never puts an object behind the
-//! eye; orthographic views keep it so depths stay positive.
+//! plane in the image. The eye distance is `PERSPECTIVE_DISTANCE` = 6 times the
+//! radius of the sphere holding everything: a gentle perspective (that sphere spans
+//! about 19°, a long-lens view common for figures) in which lobes of equal size at
+//! the front and back of a tilted molecule differ by about a tenth, not a quarter as
+//! at 3.5 radii; nothing is ever behind the eye. Orthographic views keep the distance
+//! so that depths stay positive.
 
 use super::Scene;
 use super::vec3::{V3, dot, norm, sub};
 use super::view::Orientation;
 
 /// Eye distance in radii of the bounding sphere.
-pub const PERSPECTIVE_DISTANCE: f64 = 3.5;
+pub const PERSPECTIVE_DISTANCE: f64 = 6.0;
 /// Empty space on each side, as a fraction of the fitted half extent.
 pub const MARGIN: f64 = 0.08;
 /// Half height when everything is one point (bohr), so the picture is not empty.

@@ -11,11 +11,13 @@
 
 use std::sync::LazyLock;
 
-/// One directional light: unit direction towards the light, and its strength.
+/// One directional light: unit direction towards the light, its strength, and
+/// whether it makes a highlight.
 #[derive(Debug, Clone, Copy)]
 pub struct Light {
     pub towards: [f32; 3],
     pub strength: f32,
+    pub highlight: bool,
 }
 
 /// A light set.
@@ -23,7 +25,7 @@ pub struct Light {
 pub struct Lights {
     pub lights: Vec<Light>,
     pub ambient: f32,
-    /// Strength of the white highlight relative to each light.
+    /// Strength of the white highlight relative to its light.
     pub specular: f32,
     /// Blinn–Phong exponent.
     pub shininess: i32,
@@ -36,21 +38,24 @@ fn normalised(v: [f32; 3]) -> [f32; 3] {
 
 impl Default for Lights {
     /// Key (0.72) from upper left front, fill (0.25) from lower right front,
-    /// ambient 0.2, highlight 0.3 with exponent 40: our own choice, in the range
-    /// common for scientific figures.
+    /// ambient 0.22, one highlight (from the key, 0.3, exponent 40; a second from
+    /// the fill looked like a second light source on smooth lobes): our own
+    /// choice, in the range common for scientific figures.
     fn default() -> Self {
         Lights {
             lights: vec![
                 Light {
                     towards: normalised([-0.55, 0.65, -1.0]),
                     strength: 0.72,
+                    highlight: true,
                 },
                 Light {
                     towards: normalised([0.7, -0.35, -1.0]),
                     strength: 0.25,
+                    highlight: false,
                 },
             ],
-            ambient: 0.2,
+            ambient: 0.22,
             specular: 0.3,
             shininess: 40,
         }
@@ -68,6 +73,9 @@ impl Lights {
             let d = n[0] * l.towards[0] + n[1] * l.towards[1] + n[2] * l.towards[2];
             if d > 0.0 {
                 diffuse += l.strength * d;
+                if !l.highlight {
+                    continue;
+                }
                 // Half vector between the light and the viewer (0, 0, −1).
                 let h = normalised([l.towards[0], l.towards[1], l.towards[2] - 1.0]);
                 let c = n[0] * h[0] + n[1] * h[1] + n[2] * h[2];

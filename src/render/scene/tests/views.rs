@@ -216,21 +216,21 @@ fn degenerate_views_are_errors() {
 /// spread across the screen; ties go to x, then y, then z.
 #[test]
 fn auto_view_follows_the_principal_axes() {
-    // Planar molecule in the xy plane, longest along y: seen face-on, y across, and
-    // from −z, where up is +x rather than −x.
+    // Planar molecule in the xy plane, longest along y: seen face-on from +z (the
+    // side that the turn tips up), y across.
     let planar = mol(&[
         ("C", [0.0, -2.0, 0.0]),
         ("C", [0.0, 2.0, 0.0]),
         ("H", [1.5, 0.0, 0.0]),
     ]);
     let o = auto::orientation(&planar);
-    assert!(close(o.forward, [0.0, 0.0, 1.0], 1e-9), "{o:?}");
+    assert!(close(o.forward, [0.0, 0.0, -1.0], 1e-9), "{o:?}");
     assert!(
-        close(o.right, [0.0, 1.0, 0.0], 1e-9) && close(o.up, [1.0, 0.0, 0.0], 1e-9),
+        close(o.right, [0.0, 1.0, 0.0], 1e-9) && close(o.up, [-1.0, 0.0, 0.0], 1e-9),
         "{o:?}"
     );
     // Linear along z: x and y tie for least spread, so along x with z across, from
-    // −x so that up is +y rather than −y.
+    // −x so that up leans to +y rather than −y.
     let linear = mol(&[
         ("O", [0.0, 0.0, -2.2]),
         ("C", [0.0, 0.0, 0.0]),
@@ -247,13 +247,15 @@ fn auto_view_follows_the_principal_axes() {
         "{o:?}"
     );
     // With the default turn the linear molecule stays exactly side-on, and the
-    // planar one is seen 35° off its normal.
+    // planar one is seen 45° off its normal, the +z side tipped up (z projects
+    // upwards on the screen).
     let auto = view(ViewSpec::Auto);
     let o = auto.orientation(&linear).unwrap();
     assert!(o.forward[2].abs() < 1e-12, "{o:?}");
     let o = auto.orientation(&planar).unwrap();
     let off = o.forward[2].abs().acos().to_degrees();
-    assert!((off - DEFAULT_TURN_DEG[0]).abs() < 1e-9, "{off}");
+    assert!((off - DEFAULT_TURN_DEG[0].abs()).abs() < 1e-9, "{off}");
+    assert!(o.up[2] > 0.7, "{o:?}");
     // A single atom is seen like the +x view.
     let o = auto::orientation(&mol(&[("Ne", [1.0, 2.0, 3.0])]));
     assert!(close(o.forward, [-1.0, 0.0, 0.0], 1e-12) && close(o.up, [0.0, 0.0, 1.0], 1e-12));
