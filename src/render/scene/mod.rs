@@ -36,6 +36,9 @@ pub use view::{Orientation, View, ViewSpec};
 use crate::surface::Mesh;
 
 /// A mesh with its colour (sRGB) and opacity (0 … 1; 1 is opaque, NaN counts as 1).
+/// Both faces of a translucent mesh are drawn, so where a closed surface is seen
+/// through front and back the light passing is (1 − opacity)², as through a glass
+/// shell.
 #[derive(Debug, Clone, Copy)]
 pub struct Painted<'a> {
     pub mesh: &'a Mesh,

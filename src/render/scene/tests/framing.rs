@@ -193,3 +193,76 @@ fn frame_all_holds_every_scene() {
         assert!(count > 1000, "the sphere is drawn ({count} pixels)");
     }
 }
+
+/// The perspective extent of a sphere is exact: points sampled on the sphere
+/// project inside it, and the extremes come within 1e-3 of its edges (the
+/// silhouette of a sphere under central projection touches its tangent lines;
+/// common practice).
+#[test]
+fn perspective_sphere_extent_is_tight() {
+    let o = View {
+        spec: ViewSpec::Axis {
+            axis: 2,
+            positive: true,
+        },
+        turn_deg: [0.0; 2],
+        perspective: true,
+    }
+    .orientation(&Molecule::from_symbols(&[("H", [0.0; 3])], 0).unwrap())
+    .unwrap();
+    let lobe = icosphere([0.0; 3], 5.0, 1);
+    let scene = Scene {
+        surfaces: vec![Painted {
+            mesh: &lobe,
+            rgb: [0; 3],
+            opacity: 1.0,
+        }],
+        ..Scene::default()
+    };
+    let cam = frame(&scene, &o, true, 1.0);
+    for (c, r) in [
+        ([3.0, -2.0, 1.0], 1.5),
+        ([-4.0, 3.5, -2.0], 0.7),
+        ([0.0, 0.0, 4.0], 1.0),
+    ] {
+        let e = cam.sphere_extent(cam.eye(c), r).unwrap();
+        let mut got = [
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+        ];
+        let n = 400;
+        for i in 0..=n {
+            for j in 0..2 * n {
+                let (t, p) = (
+                    std::f64::consts::PI * i as f64 / n as f64,
+                    std::f64::consts::PI * j as f64 / n as f64,
+                );
+                let q = [
+                    c[0] + r * t.sin() * p.cos(),
+                    c[1] + r * t.sin() * p.sin(),
+                    c[2] + r * t.cos(),
+                ];
+                let s = cam.screen(cam.eye(q));
+                got = [
+                    got[0].min(s[0]),
+                    got[1].max(s[0]),
+                    got[2].min(s[1]),
+                    got[3].max(s[1]),
+                ];
+            }
+        }
+        for k in 0..4 {
+            let inside = if k % 2 == 0 {
+                got[k] >= e[k] - 1e-9
+            } else {
+                got[k] <= e[k] + 1e-9
+            };
+            assert!(
+                inside && (got[k] - e[k]).abs() < 1e-3 * r,
+                "{c:?} {k}: {got:?} vs {e:?}"
+            );
+        }
+    }
+}

@@ -3,5 +3,6 @@
 mod demo;
 mod framing;
 mod helpers;
+mod perspective;
 mod pictures;
 mod views;
