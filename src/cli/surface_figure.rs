@@ -11,6 +11,7 @@ use lobecast::io::mesh::{MeshDocument, Part, encode};
 use lobecast::io::png::PngMeta;
 use lobecast::render::picture::{Furniture, compose, layout};
 use lobecast::render::scene::{Orientation, Painted, Scene, ball_and_stick, frame_all, render};
+use lobecast::render::text::formula_markup;
 use lobecast::render::{Colour, Scale};
 use lobecast::source::Source;
 use lobecast::source::surfaces::{FieldSurfaces, Isovalue, spacing};
@@ -129,11 +130,13 @@ fn furniture(
     found: &[FieldSurfaces],
     grid: &GridBox,
 ) -> Furniture {
+    let formula = formula_markup(&source.molecule().formula_with_charge());
     let title = args.title.clone().unwrap_or_else(|| {
         if found.len() == 1 {
-            found[0].info.heading.clone()
+            format!("{formula}: {}", found[0].info.heading)
         } else {
-            format!("{} fields of {}", found.len(), source.molecule().formula())
+            let names: Vec<&str> = found.iter().map(|f| f.info.quantity.as_str()).collect();
+            format!("{formula}: isosurfaces of {}", names.join(", "))
         }
     });
     let captions = found
@@ -186,6 +189,9 @@ fn furniture(
         )
     };
     let mut footnotes = vec![format!("{how} {grid_note}")];
+    if let Some(method) = source.method() {
+        footnotes.push(format!("Orbitals: {method}."));
+    }
     footnotes.extend(source.caveat_footnotes());
     Furniture {
         title,
@@ -196,6 +202,36 @@ fn furniture(
             Background::White => Colour::WHITE,
             Background::Transparent => Colour::TRANSPARENT,
         },
+    }
+}
+
+/// " (HOMO)" or " (LUMO)" when the field is one of the frontier orbitals.
+fn frontier(source: &Source, field: &lobecast::field::Field) -> &'static str {
+    let Source::Orbitals { set, .. } = source else {
+        return "";
+    };
+    if !matches!(field, lobecast::field::Field::Orbital(_)) {
+        return "";
+    }
+    let Ok(n) = field.orbital_number(set) else {
+        return "";
+    };
+    let homo = set
+        .orbitals
+        .iter()
+        .rposition(|o| o.occupation > 0.0)
+        .map(|i| i + 1);
+    let lumo = set
+        .orbitals
+        .iter()
+        .position(|o| o.occupation == 0.0)
+        .map(|i| i + 1);
+    if Some(n) == homo {
+        " (HOMO)"
+    } else if Some(n) == lumo {
+        " (LUMO)"
+    } else {
+        ""
     }
 }
 

@@ -194,6 +194,14 @@ impl Source {
         }
     }
 
+    /// The method that made the orbitals (none for a cube file).
+    pub fn method(&self) -> Option<&str> {
+        match self {
+            Source::Orbitals { set, .. } => Some(&set.method),
+            Source::Volume { .. } => None,
+        }
+    }
+
     /// How the values were obtained, for captions.
     pub fn provenance(&self) -> String {
         match self {

@@ -9,13 +9,15 @@
 //! planar molecule is seen face-on before the turn, a linear one side-on, a single
 //! atom like the `+x` view.
 //!
-//! `DEFAULT_TURN_DEG` = [−45°, 0°] then orbits the camera about the screen
-//! horizontal — the axis of largest spread — only. A linear molecule, whose axis
-//! that is, stays exactly side-on while lobes pointing at the camera swing clear
-//! (π lobes in both directions show at sin 45° ≈ 0.71 of their length). A planar
-//! molecule is seen from 45° above its plane: ring and perpendicular lobes are
-//! foreshortened alike (0.71), from the side that puts +z up: for a molecule in
-//! the xy plane, from above, with the lobes on +z above the ring.
+//! `DEFAULT_TURN_DEG` = [−30°, 25°] then orbits the camera 30° about the screen
+//! horizontal (the axis of largest spread) and 25° about the screen vertical, so
+//! that depth shows both ways: lobes pointing at the camera swing clear of the
+//! molecule, and atoms behind one another separate. A planar molecule is seen
+//! acos(cos 30° cos 25°) ≈ 38° off its normal, from the side that puts +z up (for
+//! a molecule in the xy plane: from above, +z lobes above the ring); a linear one
+//! is 25° off side-on, its length foreshortened only to cos 25° ≈ 0.91. Chosen by
+//! looking at ethylene, water and the diatomic ion: at [−45°, 0°] the π lobes of
+//! ethylene hid both carbons.
 
 use nalgebra::{Matrix3, SymmetricEigen};
 
@@ -24,7 +26,7 @@ use super::view::Orientation;
 use crate::chem::Molecule;
 
 /// Orbit applied after the principal-axis view, [about horizontal, about vertical].
-pub const DEFAULT_TURN_DEG: [f64; 2] = [-45.0, 0.0];
+pub const DEFAULT_TURN_DEG: [f64; 2] = [-30.0, 25.0];
 
 /// Relative tolerance under which two spreads count as equal.
 const TIE: f64 = 1e-3;

@@ -246,16 +246,21 @@ fn auto_view_follows_the_principal_axes() {
         close(o.forward, [0.0, 1.0, 0.0], 1e-9) && close(o.up, [0.0, 0.0, 1.0], 1e-9),
         "{o:?}"
     );
-    // With the default turn the linear molecule stays exactly side-on, and the
-    // planar one is seen 45° off its normal, the +z side tipped up (z projects
-    // upwards on the screen).
+    // With the default turn [a, b] (about the screen horizontal, then vertical) the
+    // linear molecule's axis leans b out of the screen plane (the horizontal turn
+    // leaves it alone), and the planar one's normal is off the view by
+    // acos(cos a cos b) (two rotations about perpendicular axes, spherical
+    // trigonometry), with the +z side tipped up (z projects upwards on the screen).
+    let [a, b] = DEFAULT_TURN_DEG.map(f64::to_radians);
     let auto = view(ViewSpec::Auto);
     let o = auto.orientation(&linear).unwrap();
-    assert!(o.forward[2].abs() < 1e-12, "{o:?}");
+    assert!((o.forward[2].abs() - b.sin().abs()).abs() < 1e-12, "{o:?}");
     let o = auto.orientation(&planar).unwrap();
-    let off = o.forward[2].abs().acos().to_degrees();
-    assert!((off - DEFAULT_TURN_DEG[0].abs()).abs() < 1e-9, "{off}");
-    assert!(o.up[2] > 0.7, "{o:?}");
+    assert!(
+        (o.forward[2].abs() - a.cos() * b.cos()).abs() < 1e-12,
+        "{o:?}"
+    );
+    assert!((o.up[2] - a.sin().abs()).abs() < 1e-12, "{o:?}");
     // A single atom is seen like the +x view.
     let o = auto::orientation(&mol(&[("Ne", [1.0, 2.0, 3.0])]));
     assert!(close(o.forward, [-1.0, 0.0, 0.0], 1e-12) && close(o.up, [0.0, 0.0, 1.0], 1e-12));
