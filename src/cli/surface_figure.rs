@@ -148,7 +148,12 @@ fn furniture(
             } else {
                 f.info.short.clone()
             };
-            format!("{head}; isovalue {sign}{} {}", number(f.level), f.info.unit)
+            format!(
+                "{head}{}; isovalue {sign}{} {}",
+                frontier(source, &f.field),
+                number(f.level),
+                f.info.unit
+            )
         })
         .collect();
     let signed = found.iter().any(|f| f.info.signed);
