@@ -196,7 +196,7 @@ fn read_request(args: &SurfaceArgs) -> Result<Request> {
         )));
     }
     let size = parse_size(args.size.as_deref())?;
-    let spec: ViewSpec = args.view.parse()?;
+    let spec: ViewSpec = args.view.parse().map_err(|e: Error| e.context("--view"))?;
     let turn_deg = match &args.turn {
         Some(t) => parse_turn(t)?,
         None => [0.0, 0.0],

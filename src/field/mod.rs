@@ -3,7 +3,7 @@
 
 pub mod buildup;
 mod eval;
-mod gradient;
+pub mod gradient;
 
 pub use eval::FieldSampler;
 

@@ -174,7 +174,7 @@ fn one_field(
         .with_hint("choose a smaller --iso or a finer --spacing"));
     }
     Ok(FieldSurfaces {
-        field: field.clone(),
+        field: *field,
         info,
         level,
         enclosed,
