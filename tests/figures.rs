@@ -344,7 +344,7 @@ fn compare_reference(name: &str, png: &[u8]) -> Result<(), String> {
 #[test]
 fn reference_images() {
     let dir = tempfile::tempdir().unwrap();
-    let cases: [(&str, Vec<&str>); 3] = [
+    let cases: [(&str, Vec<&str>); 4] = [
         (
             "slice-antibonding.png",
             vec![
@@ -390,11 +390,18 @@ fn reference_images() {
                 "520",
             ],
         ),
+        (
+            "surface-antibonding.png",
+            vec![
+                "surface", "--field", "orbital:2", "--view", "+y", "--spacing", "0.3", "--units",
+                "bohr", "--size", "420",
+            ],
+        ),
     ];
     let mut failures = Vec::new();
     for (name, args) in cases {
         let out_path = dir.path().join(name);
-        let flag = if args[0] == "slice" || args[0] == "profile" {
+        let flag = if ["slice", "profile", "surface"].contains(&args[0]) {
             "--png"
         } else {
             unreachable!()
