@@ -393,8 +393,17 @@ fn reference_images() {
         (
             "surface-antibonding.png",
             vec![
-                "surface", "--field", "orbital:2", "--view", "+y", "--spacing", "0.3", "--units",
-                "bohr", "--size", "420",
+                "surface",
+                "--field",
+                "orbital:2",
+                "--view",
+                "+y",
+                "--spacing",
+                "0.3",
+                "--units",
+                "bohr",
+                "--size",
+                "420",
             ],
         ),
     ];

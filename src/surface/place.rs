@@ -13,7 +13,7 @@ use super::extract::{Extraction, unit};
 /// small enough to keep the scratch memory bounded.
 const BATCH: usize = 1 << 16;
 /// Field evaluations per vertex in the search; the first is at the lattice vertex.
-const STEPS: usize = 5;
+const STEPS: usize = 8;
 /// Step of the default central-difference gradient (bohr).
 const H: f64 = 1e-4;
 
