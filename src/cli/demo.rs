@@ -167,10 +167,10 @@ fn steps(quick: bool) -> Vec<Step> {
     s.push(step(
         "3-D orbitals near the equilibrium",
         &[
-            ("h2plus-r2.5-3d.png", "bonding and antibonding orbitals at R = 2.5 bohr as 3-D surfaces enclosing 90 % of ∫ψ² dV: one lobe around both nuclei, two lobes split by the nodal plane"),
+            ("h2plus-r2.5-3d.png", "bonding and antibonding orbitals at R = 2.5 bohr as 3-D surfaces enclosing 90 % of ∫ψ² dV: one lobe around both nuclei, two lobes split by the nodal plane; translucent, so the nuclei show"),
             ("h2plus-r2.5-orbitals.glb", "the same surfaces as a glTF 2.0 mesh with the molecule, for any 3-D tool (bohr)"),
         ],
-        &format!("surface models/h2plus-r2.5.toml --panels orbital:1,orbital:2 --view +y --spacing {h} --units bohr --size {w3} --png h2plus-r2.5-3d.png --mesh h2plus-r2.5-orbitals.glb --mesh-molecule"),
+        &format!("surface models/h2plus-r2.5.toml --panels orbital:1,orbital:2 --view +y --opacity 0.6 --spacing {h} --units bohr --size {w3} --png h2plus-r2.5-3d.png --mesh h2plus-r2.5-orbitals.glb --mesh-molecule"),
     ));
     s.push(step(
         "ethylene π and π* in 3-D",
@@ -180,7 +180,7 @@ fn steps(quick: bool) -> Vec<Step> {
     s.push(step(
         "water frontier orbitals in 3-D",
         &[("water-frontier-3d.png", "water HOMO−1, HOMO (the out-of-plane lone pair) and LUMO by extended Hückel, one camera")],
-        &format!("surface models/water.xyz --method extended-huckel --panels orbital:homo-1,orbital:homo,orbital:lumo --spacing {h} --units bohr --size {w3} --png water-frontier-3d.png"),
+        &format!("surface models/water.xyz --method extended-huckel --panels orbital:homo-1,orbital:homo,orbital:lumo --opacity 0.8 --spacing {h} --units bohr --size {w3} --png water-frontier-3d.png"),
     ));
     s.push(step(
         "ethylene cube volumes",

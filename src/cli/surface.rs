@@ -335,8 +335,9 @@ fn report(
     );
     for f in found {
         say!(
-            "  {}: isovalue ±{:.4e}, enclosing {:.1} % of {}",
+            "  {}: isovalue {}{:.4e}, enclosing {:.1} % of {}",
             f.info.plain,
+            if f.info.signed { "±" } else { "" },
             f.level,
             100.0 * f.enclosed,
             f.measure_text()

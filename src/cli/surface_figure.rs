@@ -157,16 +157,25 @@ fn furniture(
         })
         .collect();
     let signed = found.iter().any(|f| f.info.signed);
-    let family = &found[0].info.family;
+    // The symbol of the key: the fields' own when they share one, else a plain f.
+    let family = if found.iter().all(|f| f.info.family == found[0].info.family) {
+        found[0].info.family.as_str()
+    } else {
+        "f"
+    };
+    // Swatches as a translucent surface shows over white.
+    let swatch = |p: Phase| {
+        phase_rgb(p).map(|c| (args.opacity * c as f64 + (1.0 - args.opacity) * 255.0).round() as u8)
+    };
     let key = if signed {
         vec![
-            (phase_rgb(Phase::Positive), format!("{family} > 0")),
-            (phase_rgb(Phase::Negative), format!("{family} < 0")),
+            (swatch(Phase::Positive), format!("{family} > 0")),
+            (swatch(Phase::Negative), format!("{family} < 0")),
         ]
     } else {
         vec![(
-            phase_rgb(Phase::Positive),
-            format!("{family} above the isovalue inside"),
+            swatch(Phase::Positive),
+            format!("{family} = isovalue (larger inside)"),
         )]
     };
     let how = match request.isovalue {

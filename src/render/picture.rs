@@ -123,11 +123,16 @@ pub fn compose(l: &Layout, panels: &[RgbaImage], f: &Furniture) -> Canvas {
             Colour::INK,
         );
     }
+    // One size for every caption: the largest at which the longest fits its panel.
+    let size = f
+        .captions
+        .iter()
+        .map(|s| fitted(s, l.caption_size, l.panel.0 as f32 * 0.96))
+        .fold(l.caption_size, f32::min);
     for ((img, &(x, y)), caption) in panels.iter().zip(&l.origins).zip(&f.captions) {
         c.paste(x as i32, y as i32, img);
         let cx = x as f32 + l.panel.0 as f32 / 2.0;
         let cy = y as f32 + l.panel.1 as f32 + l.caption_size * 0.9;
-        let size = fitted(caption, l.caption_size, l.panel.0 as f32 * 0.96);
         c.text(
             caption,
             size,
