@@ -215,18 +215,22 @@ def check_set(stem, files):
 
 
 def run_lobecast(lobecast, workdir, model):
+    """Writes the two sets of files; returns them and the enclosed volumes (bohr³)
+    lobecast reports for its surfaces."""
     files = []
+    reported = []
     for stem, extra in (("s", []), ("m", ["--mesh-molecule"])):
         for ext in ("glb", "ply", "obj"):
             out = workdir / f"{stem}.{ext}"
-            cmd = [str(lobecast), "surface", str(model), "--field", "orbital:1",
+            cmd = [str(lobecast), "surface", str(model), "--field", "orbital:2",
                    "--png", str(workdir / f"{stem}-{ext}.png"), "--mesh", str(out), *extra]
             print("RUN", " ".join(cmd))
             r = subprocess.run(cmd, capture_output=True, text=True)
             if r.returncode != 0:
                 sys.exit(f"FAIL lobecast exited {r.returncode}: {r.stderr.strip()}")
             files.append(out)
-    return files
+            reported = [float(v) for v in re.findall(r"enclosed volume ([0-9.]+) bohr", r.stdout)]
+    return files, reported
 
 
 def main():
@@ -238,11 +242,12 @@ def main():
     ap.add_argument("--files", type=Path, nargs="+")
     args = ap.parse_args()
     print(f"trimesh {version('trimesh')}, pygltflib {version('pygltflib')}, numpy {version('numpy')}")
+    reported = []
     if args.files:
         files = args.files
     elif args.lobecast and args.workdir:
         args.workdir.mkdir(parents=True, exist_ok=True)
-        files = run_lobecast(args.lobecast, args.workdir, args.model)
+        files, reported = run_lobecast(args.lobecast, args.workdir, args.model)
     else:
         ap.error("give --files, or --lobecast and --workdir")
     sets = defaultdict(dict)
@@ -256,6 +261,14 @@ def main():
         a, b = found[0], found[1]
         same = len(a) == len(b) and all(abs(x - y) <= REL_TOL * abs(x) for x, y in zip(a, b))
         check(same, f"surface volumes equal between sets {sorted(volumes)} (with and without molecule)")
+    if reported:
+        # The report prints four decimals; the files hold f32 positions.
+        for stem, vols in volumes.items():
+            ours = sorted(reported)
+            theirs = sorted(vols or [])
+            same = len(ours) == len(theirs) and all(
+                abs(x - y) <= 1e-5 * abs(x) + 1e-4 for x, y in zip(ours, theirs))
+            check(same, f"{stem}: trimesh volumes {theirs} equal lobecast's reported {ours}")
     if FAILURES:
         print(f"{len(FAILURES)} check(s) failed:", *FAILURES, sep="\n  ")
         sys.exit(1)
