@@ -5,7 +5,6 @@ use std::path::Path;
 use clap::Args;
 
 use lobecast::budget::check_count;
-use lobecast::chem::LengthUnit;
 use lobecast::error::{Error, Result};
 use lobecast::io::model::{self, LoadOptions, Model};
 use lobecast::solve::MethodKind;
@@ -48,11 +47,6 @@ pub struct MemoryFlag {
 /// Loads a model file, an orbital file, or an XYZ file with the method flags.
 pub fn load_model_with(path: &Path, flags: &XyzFlags) -> Result<Model> {
     model::load_with(path, &flags.options()?)
-}
-
-/// Converts a length flag to bohr.
-pub fn length(value: f64, unit: LengthUnit) -> f64 {
-    unit.to_bohr(value)
 }
 
 /// Writes a report to standard output (to standard error while an output file goes

@@ -1,6 +1,7 @@
 //! The command line: clap definitions (one file per subcommand) and the mapping of
 //! errors to exit codes. No science lives here.
 
+mod box_flags;
 mod combine;
 mod common;
 mod curve;

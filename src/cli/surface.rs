@@ -9,10 +9,9 @@ use clap::Args;
 use super::common::{FigureFlags, MemoryFlag, XyzFlags, parse_count, print_notes, say, shown};
 use super::slice::Background;
 use super::surface_figure::{Drawn, draw};
-use lobecast::chem::LengthUnit;
 use lobecast::error::{Error, Result};
 use lobecast::field::Field;
-use lobecast::grid::{GridBox, Resolution};
+use lobecast::grid::GridBox;
 use lobecast::io::mesh::MeshFormat;
 use lobecast::output::OutputPlan;
 use lobecast::render::scene::{View, ViewSpec};
@@ -91,18 +90,10 @@ pub struct SurfaceArgs {
     /// Title instead of the automatic one (^{…} raises, _{…} lowers)
     #[arg(long)]
     pub title: Option<String>,
-    /// Grid spacing for wave-function sources, in --units [default: 0.15 bohr]
-    #[arg(long, conflicts_with = "points", value_name = "LENGTH")]
-    pub spacing: Option<f64>,
-    /// Exactly N points along the longest edge of the box (2 to 2000), instead of --spacing
-    #[arg(long, value_name = "N")]
-    pub points: Option<String>,
-    /// Space between the outermost nuclei and the box faces, in --units [default: 5 bohr]
-    #[arg(long, value_name = "LENGTH")]
-    pub padding: Option<f64>,
-    /// Unit of --spacing and --padding
-    #[arg(long, value_parser = super::values::length_unit(), default_value = "angstrom")]
-    pub units: LengthUnit,
+    /// The box for wave-function sources, as for `volume` (a cube file is used on
+    /// its own grid)
+    #[command(flatten)]
+    pub grid: super::box_flags::BoxFlags,
     #[command(flatten)]
     pub memory: MemoryFlag,
     #[command(flatten)]
@@ -211,7 +202,7 @@ fn read_request(args: &SurfaceArgs) -> Result<Request> {
         .as_deref()
         .map(MeshFormat::from_path)
         .transpose()?;
-    check_lengths(args)?;
+    args.grid.check()?;
     Ok(Request {
         fields,
         isovalue,
@@ -259,53 +250,14 @@ fn parse_turn(text: &str) -> Result<[f64; 2]> {
     }
 }
 
-fn check_lengths(args: &SurfaceArgs) -> Result<()> {
-    let unit = args.units.symbol();
-    if let Some(h) = args.spacing
-        && !(h.is_finite() && h > 0.0)
-    {
-        return Err(Error::input(format!(
-            "--spacing must be a positive length, got {} {unit}",
-            shown(h)
-        )));
-    }
-    if let Some(p) = args.padding
-        && !(p.is_finite() && p >= 0.0)
-    {
-        return Err(Error::input(format!(
-            "--padding must be zero or a positive length, got {} {unit}",
-            shown(p)
-        )));
-    }
-    Ok(())
-}
-
-/// Largest grid along one edge for a surface (a picture needs far less than a cube).
-pub const MAX_POINTS_PER_EDGE: u64 = 2000;
-
 /// The box for a wave function (the `volume` defaults), or the cube file's own grid.
 fn grid_for(args: &SurfaceArgs, source: &Source) -> Result<GridBox> {
-    let custom = args.spacing.is_some() || args.points.is_some() || args.padding.is_some();
     match source {
-        Source::Volume { .. } if custom => Err(Error::input(
+        Source::Volume { .. } if args.grid.any() => Err(Error::input(
             "--spacing, --points and --padding apply to wave-function sources; a cube file's surfaces are taken on its own grid",
         )),
         Source::Volume { volume, .. } => Ok(volume.info.header.grid.clone()),
-        Source::Orbitals { set, .. } => {
-            let padding = args
-                .padding
-                .map_or(super::volume::DEFAULT_PADDING_BOHR, |p| {
-                    args.units.to_bohr(p)
-                });
-            let resolution = match (args.spacing, args.points.as_deref()) {
-                (_, Some(n)) => {
-                    Resolution::Points(parse_count("--points", n, 2, MAX_POINTS_PER_EDGE)? as usize)
-                }
-                (Some(h), None) => Resolution::Spacing(args.units.to_bohr(h)),
-                (None, None) => Resolution::Spacing(super::volume::DEFAULT_SPACING_BOHR),
-            };
-            GridBox::around(&set.molecule, padding, resolution)
-        }
+        Source::Orbitals { set, .. } => args.grid.grid(&set.molecule),
     }
 }
 

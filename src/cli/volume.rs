@@ -6,19 +6,13 @@ use std::time::Instant;
 
 use clap::Args;
 
-use super::common::{XyzFlags, length, load_model_with, print_notes, say};
-use lobecast::chem::LengthUnit;
+use super::common::{XyzFlags, load_model_with, print_notes, say};
 use lobecast::error::{Error, Result};
 use lobecast::field::{Field, FieldSampler};
-use lobecast::grid::{GridBox, Resolution};
+use lobecast::grid::GridBox;
 use lobecast::io::cube::sink::CubeSink;
 use lobecast::io::cube::write_streaming;
 use lobecast::output::OutputPlan;
-
-/// Default box padding around the outermost nuclei (bohr).
-pub const DEFAULT_PADDING_BOHR: f64 = 5.0;
-/// Default point spacing (bohr); fine enough for valence orbitals (common practice).
-pub const DEFAULT_SPACING_BOHR: f64 = 0.15;
 
 #[derive(Debug, Args)]
 pub struct VolumeArgs {
@@ -31,20 +25,8 @@ pub struct VolumeArgs {
     /// homo-1, lumo+1, …), density, or deformation (against neutral spherical atoms)
     #[arg(long = "field", required = true, value_name = "FIELD")]
     pub fields: Vec<String>,
-    /// Distance between grid points, in --units [default: 0.15 bohr, which is 0.0794 Å]
-    #[arg(long, conflicts_with = "points", value_name = "LENGTH")]
-    pub spacing: Option<f64>,
-    /// Exactly N points along the longest edge of the box (2 to 10000), instead of
-    /// --spacing; the other edges get as many as the same spacing needs
-    #[arg(long, value_name = "N")]
-    pub points: Option<String>,
-    /// Space between the outermost nuclei and the box faces, in --units
-    /// [default: 5 bohr, which is 2.646 Å]
-    #[arg(long, value_name = "LENGTH")]
-    pub padding: Option<f64>,
-    /// Unit of --spacing and --padding
-    #[arg(long, value_parser = super::values::length_unit(), default_value = "angstrom")]
-    pub units: LengthUnit,
+    #[command(flatten)]
+    pub grid: super::box_flags::BoxFlags,
     /// Output cube file (lengths in bohr; a name ending in .gz is gzip-compressed)
     #[arg(long, value_name = "FILE")]
     pub out: PathBuf,
@@ -65,7 +47,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let model = load_model_with(&args.model, &args.xyz)?;
     let mut plan = OutputPlan::new(&model.inputs);
     let slot = plan.add(&args.out)?;
-    check_lengths(&args)?;
+    args.grid.check()?;
     let set = lobecast::solve::orbitals_within(
         &model.molecule,
         &model.method,
@@ -73,15 +55,7 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         &mut |_| {},
     )?;
     let sampler = FieldSampler::new(&set, &fields)?;
-    let padding = args
-        .padding
-        .map_or(DEFAULT_PADDING_BOHR, |p| length(p, args.units));
-    let resolution = match (args.spacing, args.points.as_deref()) {
-        (_, Some(n)) => Resolution::Points(points_count(n)?),
-        (Some(h), None) => Resolution::Spacing(length(h, args.units)),
-        (None, None) => Resolution::Spacing(DEFAULT_SPACING_BOHR),
-    };
-    let grid = GridBox::around(&set.molecule, padding, resolution)?;
+    let grid = args.grid.grid(&set.molecule)?;
     let source = model.path.display().to_string();
     let header = lobecast::io::cube::header_for(&set, &fields, grid.clone(), &source)?;
     let bytes = header.predicted_bytes();
@@ -123,35 +97,6 @@ pub fn run(args: VolumeArgs) -> Result<()> {
         say!("  {}", f.describe(&set)?);
     }
     print_notes(&set.statements())?;
-    Ok(())
-}
-
-/// Largest `--points`: 10000³ points is far beyond any cube a viewer opens.
-pub const MAX_POINTS_PER_EDGE: u64 = 10_000;
-
-fn points_count(text: &str) -> Result<usize> {
-    Ok(super::common::parse_count("--points", text, 2, MAX_POINTS_PER_EDGE)? as usize)
-}
-
-/// Refuses bad lengths in the unit the user typed them in, before any work.
-fn check_lengths(args: &VolumeArgs) -> Result<()> {
-    let unit = args.units.symbol();
-    if let Some(h) = args.spacing {
-        if !(h.is_finite() && h > 0.0) {
-            return Err(Error::input(format!(
-                "--spacing must be a positive length, got {} {unit}",
-                super::common::shown(h)
-            )));
-        }
-    }
-    if let Some(p) = args.padding {
-        if !(p.is_finite() && p >= 0.0) {
-            return Err(Error::input(format!(
-                "--padding must be zero or a positive length, got {} {unit}",
-                super::common::shown(p)
-            )));
-        }
-    }
     Ok(())
 }
 

@@ -1,105 +1,12 @@
-//! Test meshes and light sets (the shared shape builders are written elsewhere; the
-//! tests keep their own so they depend on nothing else).
-
-use std::collections::HashMap;
+//! Test meshes and light sets.
 
 use super::super::shade::{Light, Lights};
 use crate::surface::Mesh;
 
-/// An icosphere: the icosahedron subdivided `levels` times, pushed onto the sphere;
-/// triangles counter-clockwise seen from outside, normals outward.
+/// An icosphere (the shared shape builder): triangles counter-clockwise seen from
+/// outside, normals outward.
 pub fn icosphere(centre: [f64; 3], radius: f64, levels: u32) -> Mesh {
-    let p = (1.0 + 5f64.sqrt()) / 2.0;
-    let mut dirs: Vec<[f64; 3]> = vec![
-        [-1.0, p, 0.0],
-        [1.0, p, 0.0],
-        [-1.0, -p, 0.0],
-        [1.0, -p, 0.0],
-        [0.0, -1.0, p],
-        [0.0, 1.0, p],
-        [0.0, -1.0, -p],
-        [0.0, 1.0, -p],
-        [p, 0.0, -1.0],
-        [p, 0.0, 1.0],
-        [-p, 0.0, -1.0],
-        [-p, 0.0, 1.0],
-    ];
-    let mut tris: Vec<[u32; 3]> = vec![
-        [0, 11, 5],
-        [0, 5, 1],
-        [0, 1, 7],
-        [0, 7, 10],
-        [0, 10, 11],
-        [1, 5, 9],
-        [5, 11, 4],
-        [11, 10, 2],
-        [10, 7, 6],
-        [7, 1, 8],
-        [3, 9, 4],
-        [3, 4, 2],
-        [3, 2, 6],
-        [3, 6, 8],
-        [3, 8, 9],
-        [4, 9, 5],
-        [2, 4, 11],
-        [6, 2, 10],
-        [8, 6, 7],
-        [9, 8, 1],
-    ];
-    let unit = |v: [f64; 3]| {
-        let n = (v[0] * v[0] + v[1] * v[1] + v[2] * v[2]).sqrt();
-        [v[0] / n, v[1] / n, v[2] / n]
-    };
-    for d in dirs.iter_mut() {
-        *d = unit(*d);
-    }
-    for _ in 0..levels {
-        let mut mid: HashMap<(u32, u32), u32> = HashMap::new();
-        let mut next = Vec::with_capacity(tris.len() * 4);
-        let mut half = |a: u32, b: u32, dirs: &mut Vec<[f64; 3]>| {
-            *mid.entry((a.min(b), a.max(b))).or_insert_with(|| {
-                let (x, y) = (dirs[a as usize], dirs[b as usize]);
-                dirs.push(unit([x[0] + y[0], x[1] + y[1], x[2] + y[2]]));
-                dirs.len() as u32 - 1
-            })
-        };
-        for [a, b, c] in tris {
-            let (ab, bc, ca) = (
-                half(a, b, &mut dirs),
-                half(b, c, &mut dirs),
-                half(c, a, &mut dirs),
-            );
-            next.extend([[a, ab, ca], [b, bc, ab], [c, ca, bc], [ab, bc, ca]]);
-        }
-        tris = next;
-    }
-    // Make every triangle counter-clockwise seen from outside.
-    for t in tris.iter_mut() {
-        let [a, b, c] = t.map(|k| dirs[k as usize]);
-        let (u, v) = (sub(b, a), sub(c, a));
-        let n = [
-            u[1] * v[2] - u[2] * v[1],
-            u[2] * v[0] - u[0] * v[2],
-            u[0] * v[1] - u[1] * v[0],
-        ];
-        if n[0] * a[0] + n[1] * a[1] + n[2] * a[2] < 0.0 {
-            t.swap(1, 2);
-        }
-    }
-    Mesh {
-        positions: dirs
-            .iter()
-            .map(|d| {
-                [
-                    centre[0] + radius * d[0],
-                    centre[1] + radius * d[1],
-                    centre[2] + radius * d[2],
-                ]
-            })
-            .collect(),
-        normals: dirs,
-        triangles: tris,
-    }
+    crate::surface::shapes::sphere(centre, radius, levels)
 }
 
 fn sub(a: [f64; 3], b: [f64; 3]) -> [f64; 3] {
