@@ -187,6 +187,14 @@ fn read_request(args: &SurfaceArgs) -> Result<Request> {
         )));
     }
     let size = parse_size(args.size.as_deref())?;
+    // The picture with its copies (canvas, raster, PNG), before any work; a height
+    // left to the layout is at most twice the width (two rows of 4:3 panels).
+    let (w, h) = (size.0 as f64, size.1.map_or(2.0 * size.0 as f64, f64::from));
+    lobecast::budget::check_memory(
+        lobecast::source::budget::picture_memory(w, h),
+        args.memory.memory,
+        &format!("a picture of {w}×{h} pixels"),
+    )?;
     let spec: ViewSpec = args.view.parse().map_err(|e: Error| e.context("--view"))?;
     let turn_deg = match &args.turn {
         Some(t) => parse_turn(t)?,
