@@ -5,7 +5,7 @@ use std::time::Instant;
 
 use super::slice::Background;
 use super::surface::{Request, SurfaceArgs};
-use lobecast::error::Result;
+use lobecast::error::{Error, Result};
 use lobecast::grid::GridBox;
 use lobecast::io::mesh::{MeshDocument, Part, encode};
 use lobecast::io::png::PngMeta;
@@ -21,6 +21,9 @@ use lobecast::surface::{Phase, shapes};
 /// ends, where the slice maps show strong lobes (the very ends are too dark to show
 /// shading).
 const PHASE_AT: f64 = 0.12;
+
+/// The smallest panel (px) whose caption stays legible beside its neighbours.
+const MIN_PANEL: (u32, u32) = (150, 100);
 
 /// The encoded outputs and the time spent drawing.
 pub struct Drawn {
@@ -102,6 +105,18 @@ fn picture(
     let furniture = furniture(args, request, source, found, grid);
     let (w, h) = request.size;
     let l = layout(w, h, found.len(), &furniture);
+    if l.panel.0 < MIN_PANEL.0 || l.panel.1 < MIN_PANEL.1 {
+        return Err(Error::input(format!(
+            "--size {w}{} leaves {} panel(s) of {}×{} px, below the {}×{} px their captions need",
+            h.map(|h| format!(",{h}")).unwrap_or_default(),
+            found.len(),
+            l.panel.0,
+            l.panel.1,
+            MIN_PANEL.0,
+            MIN_PANEL.1
+        ))
+        .with_hint("use a larger --size, or fewer --panels"));
+    }
     let camera = frame_all(
         &scenes,
         orientation,

@@ -114,9 +114,10 @@ pub fn compose(l: &Layout, panels: &[RgbaImage], f: &Furniture) -> Canvas {
     let mut c = Canvas::new(l.width, l.height, f.background);
     let centre = l.width as f32 / 2.0;
     if !f.title.is_empty() {
+        // A long title shrinks to fit rather than running off the picture.
         c.text(
             &f.title,
-            l.title_size,
+            fitted(&f.title, l.title_size, l.width as f32 * 0.96),
             centre,
             l.top * 0.5,
             (HAlign::Centre, VAlign::Middle),

@@ -118,11 +118,21 @@ fn one_field(
         )));
     }
     if level >= largest {
+        let (why, hint) = match isovalue {
+            Isovalue::Fixed(_) => (
+                "the isovalue",
+                "choose a smaller --iso, or use --enclose F (a fraction of the field's measure)",
+            ),
+            Isovalue::Enclosing(_) => (
+                "the enclosed fraction gives an isovalue",
+                "use a larger --enclose fraction",
+            ),
+        };
         return Err(Error::input(format!(
-            "the isovalue {level:.4e} is at or above the largest |value| of {} on the grid, {largest:.4e}: the surface would be empty",
+            "{why} {level:.4e}, at or above the largest |value| of {} on the grid, {largest:.4e}: the surface would be empty",
             info.plain
         ))
-        .with_hint("choose a smaller --iso, or use --enclose F (a fraction of the field's measure)"));
+        .with_hint(hint));
     }
     let enclosed = enclosed_fraction(&values, level, measure);
     let started = Instant::now();
