@@ -66,13 +66,14 @@ pub struct SurfaceArgs {
     /// Also put the ball-and-stick molecule into the mesh file, as separate parts
     #[arg(long, requires = "mesh")]
     pub mesh_molecule: bool,
-    /// Where to look from: +x, -x, +y, -y, +z, -z (along an axis), atoms:I,J (down the
-    /// bond from atom I to J), normal:I,J,K (onto the plane of three atoms), or auto
-    /// (along the molecule's thinnest direction, turned to show depth)
+    /// Where to look from: +x, -x, +y, -y, +z, -z (from that side along the axis; up is
+    /// +z, or +y looking along z), atoms:I,J (down the bond from atom I to J),
+    /// normal:I,J,K (onto the plane of three atoms), or auto (along the direction the
+    /// nuclei spread least, turned 30° and 25° to show depth)
     #[arg(long, default_value = "auto", allow_hyphen_values = true)]
     pub view: String,
-    /// Then turn the molecule by A degrees about the screen's horizontal axis and B
-    /// degrees about its vertical axis
+    /// Then turn the view A degrees about the screen's horizontal axis and B degrees
+    /// about its vertical axis (with auto, added to its own turn)
     #[arg(long, value_name = "A,B", allow_hyphen_values = true)]
     pub turn: Option<String>,
     /// Perspective projection instead of orthographic
@@ -82,6 +83,7 @@ pub struct SurfaceArgs {
     /// [default: 1200 wide, panels 4:3]
     #[arg(long, value_name = "W[,H]")]
     pub size: Option<String>,
+    /// Picture background
     #[arg(long, value_enum, default_value_t = Background::White)]
     pub background: Background,
     /// Surface opacity from 0.05 to 1; translucent surfaces show the molecule inside
