@@ -1,0 +1,150 @@
+//! Gaussian values on tiles of an axis-aligned slab, by separability:
+//! e^(−αr²) = e^(−αx²) e^(−αy²) e^(−αz²). The per-axis tables are built once per
+//! slab for every primitive (ny + nz exponentials each), then every tile adds, line
+//! segment by line segment, exactly the terms `GaussianShell::values_lattice` adds
+//! for its points, in the same order and with the same screening, so each value is
+//! the same to the bit.
+
+use super::TILE;
+use crate::basis::Shell;
+use crate::basis::gaussian::{CARTESIAN, SCREEN};
+use crate::basis::slater::powers;
+
+/// One primitive's slab tables.
+#[derive(Debug, Clone, Copy, Default)]
+struct Prim {
+    xpow: [f64; 4],
+    /// Start of the y table ((l+1) × ny), then the z table ((l+1) × nz), in `data`.
+    y: usize,
+    z: usize,
+    /// Start of the per-line "not screened" flags in `ok`.
+    line: usize,
+}
+
+/// Per-slab tables of every Gaussian primitive that survives the slab's screening.
+#[derive(Debug, Default)]
+pub(super) struct Tables {
+    data: Vec<f64>,
+    ok: Vec<bool>,
+    prims: Vec<Prim>,
+    /// prims[first[k]..first[k + 1]] belong to shell k.
+    first: Vec<usize>,
+    ny: usize,
+    nz: usize,
+}
+
+impl Tables {
+    pub(super) fn bytes(&self) -> usize {
+        8 * self.data.capacity()
+            + self.ok.capacity()
+            + std::mem::size_of::<Prim>() * self.prims.capacity()
+            + 8 * self.first.capacity()
+    }
+
+    /// Builds the tables of the slab at `x` with lines along z at `ys`.
+    pub(super) fn fill(&mut self, shells: &[Shell], x: f64, ys: &[f64], zs: &[f64]) {
+        let (ny, nz) = (ys.len(), zs.len());
+        (self.ny, self.nz) = (ny, nz);
+        self.data.clear();
+        self.ok.clear();
+        self.prims.clear();
+        self.first.clear();
+        for shell in shells {
+            self.first.push(self.prims.len());
+            let Shell::Gaussian(g) = shell else { continue };
+            let l = g.l as usize;
+            let dx = x - g.center[0];
+            let px = powers(dx);
+            for ((alpha, _), d) in g.primitives.iter().zip(&g.d) {
+                let ex = d * (-alpha * dx * dx).exp();
+                let mut xpow = [0.0; 4];
+                for a in 0..=l {
+                    xpow[a] = ex * px[a];
+                }
+                let xmax = xpow[..=l].iter().fold(0.0f64, |m, v| m.max(v.abs()));
+                if xmax < SCREEN {
+                    continue;
+                }
+                let (y, z) = (self.data.len(), self.data.len() + (l + 1) * ny);
+                self.data.resize(z + (l + 1) * nz, 0.0);
+                fill_axis(&mut self.data[y..z], ys, g.center[1], *alpha, l);
+                fill_axis(&mut self.data[z..], zs, g.center[2], *alpha, l);
+                let zmax = self.data[z..].iter().fold(0.0f64, |m, v| m.max(v.abs()));
+                let line = self.ok.len();
+                for j in 0..ny {
+                    let ymax = (0..=l).fold(0.0f64, |m, b| m.max(self.data[y + b * ny + j].abs()));
+                    let screened = xmax * ymax * zmax < SCREEN;
+                    self.ok.push(!screened);
+                }
+                self.prims.push(Prim { xpow, y, z, line });
+            }
+        }
+        self.first.push(self.prims.len());
+    }
+
+    /// Values of every Gaussian shell at slab points p0..p0+n into `phi`
+    /// (functions × TILE), and whether each function got any nonzero term.
+    pub(super) fn tile(
+        &self,
+        shells: &[Shell],
+        offsets: &[usize],
+        p0: usize,
+        n: usize,
+        phi: &mut [f64],
+        live: &mut [bool],
+    ) {
+        let (ny, nz) = (self.ny, self.nz);
+        let (j0, j1) = (p0 / nz, (p0 + n - 1) / nz + 1);
+        for (k, (shell, &o)) in shells.iter().zip(offsets).enumerate() {
+            let Shell::Gaussian(g) = shell else { continue };
+            let rows = &mut phi[o * TILE..(o + g.len()) * TILE];
+            for f in 0..g.len() {
+                rows[f * TILE..f * TILE + n].fill(0.0);
+            }
+            let comps = CARTESIAN[g.l as usize];
+            let mut any = false;
+            for p in &self.prims[self.first[k]..self.first[k + 1]] {
+                for j in j0..j1 {
+                    if !self.ok[p.line + j] {
+                        continue;
+                    }
+                    let k0 = p0.max(j * nz) - j * nz;
+                    let k1 = (p0 + n).min((j + 1) * nz) - j * nz;
+                    let t0 = j * nz + k0 - p0;
+                    for (ci, c) in comps.iter().enumerate() {
+                        let coef = p.xpow[c[0] as usize] * self.data[p.y + c[1] as usize * ny + j];
+                        if coef == 0.0 {
+                            continue;
+                        }
+                        let zrow = &self.data[p.z + c[2] as usize * nz..][k0..k1];
+                        for (f, row) in g.rows.iter().enumerate() {
+                            let w = row[ci] * coef;
+                            if w != 0.0 {
+                                any = true;
+                                let dst = &mut rows[f * TILE + t0..][..k1 - k0];
+                                for (o, zv) in dst.iter_mut().zip(zrow) {
+                                    *o += w * zv;
+                                }
+                            }
+                        }
+                    }
+                }
+            }
+            live[o..o + g.len()].fill(any);
+        }
+    }
+}
+
+/// table[p·len + i] = (t_i − c)^p e^(−α (t_i − c)²) for p = 0..=l, as
+/// `GaussianShell::values_lattice` fills it.
+fn fill_axis(table: &mut [f64], ts: &[f64], c: f64, alpha: f64, l: usize) {
+    let len = ts.len();
+    for (i, t) in ts.iter().enumerate() {
+        let d = t - c;
+        let mut v = (-alpha * d * d).exp();
+        for p in 0..=l {
+            table[p * len + i] = v;
+            v *= d;
+        }
+    }
+}
