@@ -9,7 +9,7 @@
 //! on this form, shell by shell.
 
 use super::harmonics::{cartesian_components, double_factorial_odd, solid_harmonic};
-use super::slater::powers;
+use super::slater::{exp_neg, powers};
 use crate::error::{Error, Result};
 use std::f64::consts::PI;
 
@@ -202,7 +202,7 @@ impl GaussianShell {
                 .primitives
                 .iter()
                 .zip(&self.d)
-                .map(|((a, _), d)| d * (-a * r2).exp())
+                .map(|((a, _), d)| d * exp_neg(-a * r2))
                 .sum();
             self.angular(d, radial, &mut out[p..], n);
         }
@@ -235,8 +235,15 @@ impl GaussianShell {
     /// from power tables with the products `powi` makes (see `slater::powers`).
     #[inline(always)]
     fn angular(&self, d: [f64; 3], radial: f64, out: &mut [f64], stride: usize) {
+        if self.l == 0 {
+            // The one monomial is 1.0: the row sum is its single term, exactly.
+            for (f, row) in self.rows.iter().enumerate() {
+                out[f * stride] = radial * row[0];
+            }
+            return;
+        }
         let [px, py, pz] = d.map(powers);
-        let comps = &CARTESIAN[self.l as usize];
+        let comps = CARTESIAN[self.l as usize];
         let mut mono = [0.0; 10];
         for (m, c) in mono.iter_mut().zip(comps.iter()) {
             *m = px[c[0] as usize] * py[c[1] as usize] * pz[c[2] as usize];

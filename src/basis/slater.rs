@@ -127,6 +127,13 @@ impl SlaterShell {
     /// terms in the order and with the products `eval_polynomial` uses.
     #[inline(always)]
     fn angular(&self, d: [f64; 3], radial: f64, out: &mut [f64], stride: usize) {
+        if self.l == 0 {
+            // Y_00 is one constant term c·1·1·1 = c: the polynomial is c exactly.
+            for (f, h) in self.harmonics.iter().enumerate() {
+                out[f * stride] = if radial == 0.0 { 0.0 } else { radial * h[0].0 };
+            }
+            return;
+        }
         let [px, py, pz] = d.map(powers);
         for (f, h) in self.harmonics.iter().enumerate() {
             out[f * stride] = if radial == 0.0 {
@@ -191,6 +198,14 @@ pub(crate) fn powers(x: f64) -> [f64; 4] {
     [1.0, x, x2, x * x2]
 }
 
+/// e^x, with the arguments where binary64 e^x underflows to exactly 0 answered
+/// without the library's slow underflow path (e^−746 < 2^−1075, half the smallest
+/// subnormal, rounds to 0): the same bits, checked by test.
+#[inline(always)]
+pub(crate) fn exp_neg(x: f64) -> f64 {
+    if x < -746.0 { 0.0 } else { x.exp() }
+}
+
 /// x^n for n ≥ 0 by the binary powering `f64::powi` performs at run time
 /// (compiler-builtins `__powidf2`), inlined: same bits, no call.
 #[inline(always)]
@@ -245,6 +260,10 @@ mod tests {
             let t = powers(x);
             for (n, v) in t.iter().enumerate() {
                 assert_eq!(v.to_bits(), x.powi(n as i32).to_bits(), "{x}^{n}");
+            }
+            for k in [1.0, 5.0, 50.0, 700.0, 745.0, 745.2, 746.0, 800.0, 1e5] {
+                let y = -k * x.abs();
+                assert_eq!(exp_neg(y).to_bits(), y.exp().to_bits(), "exp({y})");
             }
             for n in -2..=7 {
                 let want = x.powi(std::hint::black_box(n));

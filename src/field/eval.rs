@@ -116,9 +116,8 @@ impl FieldSampler {
         with_scratch(|s| {
             self.prepare(s);
             s.lattice.fill(&self.shells, x, ys, zs);
-            for (t, dst) in out.chunks_mut(TILE * nf).enumerate() {
-                let p0 = t * TILE;
-                let len = dst.len() / nf;
+            for (p0, len) in slab_tiles(ys.len(), zs.len()) {
+                let dst = &mut out[p0 * nf..(p0 + len) * nf];
                 groups::tile(
                     &self.groups,
                     &self.shells,
@@ -167,6 +166,36 @@ impl FieldSampler {
         self.combo.fields(&s.phi, &s.psi, n, &mut s.acc, out);
         s.active = active;
     }
+}
+
+/// (first point, length) of the tiles of a slab of ny lines of nz points: whole
+/// lines when they fit in a tile, else each line cut into equal pieces, so the
+/// lattice path adds long contiguous runs.
+fn slab_tiles(ny: usize, nz: usize) -> impl Iterator<Item = (usize, usize)> {
+    let (per_line, chunk) = if nz <= TILE {
+        (1, nz)
+    } else {
+        let pieces = nz.div_ceil(TILE);
+        (pieces, nz.div_ceil(pieces))
+    };
+    let lines = if nz <= TILE {
+        (TILE / nz.max(1)).max(1)
+    } else {
+        1
+    };
+    let n = ny * nz;
+    let step = lines * nz;
+    (0..ny.div_ceil(lines)).flat_map(move |b| {
+        (0..per_line).filter_map(move |c| {
+            let p0 = b * step + c * chunk;
+            let end = if per_line == 1 {
+                (p0 + step).min(n)
+            } else {
+                (b * nz + (c + 1) * chunk).min((b + 1) * nz)
+            };
+            (p0 < end).then_some((p0, end - p0))
+        })
+    })
 }
 
 fn occupied(set: &OrbitalSet) -> Vec<(f64, Vec<f64>)> {

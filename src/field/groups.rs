@@ -7,7 +7,7 @@
 use super::TILE;
 use super::scratch::{Scratch, at_least};
 use crate::basis::Shell;
-use crate::basis::slater::SCREEN_ZETA_R;
+use crate::basis::slater::{SCREEN_ZETA_R, exp_neg};
 
 /// e^(−x) is exactly 0 in binary64 for x beyond about 745.2; a tile where every
 /// α r² exceeds this has Gaussian values that are exactly ±0 (IEEE 754 exp
@@ -125,7 +125,7 @@ pub(super) fn tile(
                         let a = f64::from_bits(*a);
                         let row = &mut s.ex[k * TILE..k * TILE + n];
                         for (e, &r2) in row.iter_mut().zip(&s.r[..n]) {
-                            *e = (-a * r2).exp();
+                            *e = exp_neg(-a * r2);
                         }
                     }
                     for &(k, o) in &g.members {

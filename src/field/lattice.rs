@@ -8,7 +8,7 @@
 use super::TILE;
 use crate::basis::Shell;
 use crate::basis::gaussian::{CARTESIAN, SCREEN};
-use crate::basis::slater::powers;
+use crate::basis::slater::{exp_neg, powers};
 
 /// One primitive's slab tables.
 #[derive(Debug, Clone, Copy, Default)]
@@ -56,7 +56,7 @@ impl Tables {
             let dx = x - g.center[0];
             let px = powers(dx);
             for ((alpha, _), d) in g.primitives.iter().zip(&g.d) {
-                let ex = d * (-alpha * dx * dx).exp();
+                let ex = d * exp_neg(-alpha * dx * dx);
                 let mut xpow = [0.0; 4];
                 for a in 0..=l {
                     xpow[a] = ex * px[a];
@@ -141,7 +141,7 @@ fn fill_axis(table: &mut [f64], ts: &[f64], c: f64, alpha: f64, l: usize) {
     let len = ts.len();
     for (i, t) in ts.iter().enumerate() {
         let d = t - c;
-        let mut v = (-alpha * d * d).exp();
+        let mut v = exp_neg(-alpha * d * d);
         for p in 0..=l {
             table[p * len + i] = v;
             v *= d;
