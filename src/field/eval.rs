@@ -37,7 +37,12 @@ pub struct FieldSampler {
     pub(super) fields: Vec<Resolved>,
     groups: Vec<Group>,
     combo: Combo,
+    /// Tells this sampler's cached lattice tables from another's (`lattice`).
+    id: u64,
 }
+
+/// Source of `FieldSampler::id`.
+static NEXT_ID: std::sync::atomic::AtomicU64 = std::sync::atomic::AtomicU64::new(1);
 
 impl FieldSampler {
     /// Resolves orbital selectors now, so that an out-of-range orbital is an error
@@ -76,6 +81,7 @@ impl FieldSampler {
         Ok(FieldSampler {
             groups: groups::build(&set.basis.shells, &offsets),
             combo: Combo::new(&resolved, set.basis.len()),
+            id: NEXT_ID.fetch_add(1, std::sync::atomic::Ordering::Relaxed),
             shells: set.basis.shells.clone(),
             offsets,
             nbf: set.basis.len(),
@@ -115,7 +121,7 @@ impl FieldSampler {
         }
         with_scratch(|s| {
             self.prepare(s);
-            s.lattice.fill(&self.shells, x, ys, zs);
+            s.lattice.fill(self.id, &self.shells, x, ys, zs);
             for (p0, len) in slab_tiles(ys.len(), zs.len()) {
                 let dst = &mut out[p0 * nf..(p0 + len) * nf];
                 groups::tile(

@@ -1,6 +1,6 @@
 //! Gaussian values on tiles of an axis-aligned slab, by separability:
 //! e^(−αr²) = e^(−αx²) e^(−αy²) e^(−αz²). The per-axis tables are built once per
-//! slab for every primitive (ny + nz exponentials each), then every tile adds, line
+//! thread and grid for every primitive (ny + nz exponentials each), then every tile adds, line
 //! segment by line segment, exactly the terms `GaussianShell::values_lattice` adds
 //! for its points, in the same order and with the same screening, so each value is
 //! the same to the bit.
@@ -21,10 +21,27 @@ struct Prim {
     line: usize,
 }
 
-/// Per-slab tables of every Gaussian primitive that survives the slab's screening.
+/// Axis tables of one primitive: they depend on the lattice lines, not on the slab.
+#[derive(Debug, Clone, Copy, Default)]
+struct Axes {
+    y: usize,
+    z: usize,
+    /// Start of max_b |ytab[b][j]| per line in `data`.
+    ymax: usize,
+    zmax: f64,
+}
+
+/// Tables of every Gaussian primitive: the y and z tables are built once per
+/// sampler and lattice (the same exponentials every slab of a grid recomputed
+/// before), the x factors and the screening of lines once per slab.
 #[derive(Debug, Default)]
 pub(super) struct Tables {
+    /// Which sampler and lattice lines `data` and `axes` belong to.
+    owner: u64,
+    ys: Vec<u64>,
+    zs: Vec<u64>,
     data: Vec<f64>,
+    axes: Vec<Axes>,
     ok: Vec<bool>,
     prims: Vec<Prim>,
     /// prims[first[k]..first[k + 1]] belong to shell k.
@@ -33,22 +50,62 @@ pub(super) struct Tables {
     nz: usize,
 }
 
+fn bits(v: &[f64]) -> impl Iterator<Item = u64> + '_ {
+    v.iter().map(|t| t.to_bits())
+}
+
 impl Tables {
     pub(super) fn bytes(&self) -> usize {
-        8 * self.data.capacity()
+        8 * (self.data.capacity() + self.ys.capacity() + self.zs.capacity())
             + self.ok.capacity()
+            + std::mem::size_of::<Axes>() * self.axes.capacity()
             + std::mem::size_of::<Prim>() * self.prims.capacity()
             + 8 * self.first.capacity()
     }
 
-    /// Builds the tables of the slab at `x` with lines along z at `ys`.
-    pub(super) fn fill(&mut self, shells: &[Shell], x: f64, ys: &[f64], zs: &[f64]) {
+    /// The axis tables of every primitive of `shells` on these lines.
+    fn build_axes(&mut self, owner: u64, shells: &[Shell], ys: &[f64], zs: &[f64]) {
         let (ny, nz) = (ys.len(), zs.len());
-        (self.ny, self.nz) = (ny, nz);
+        (self.owner, self.ny, self.nz) = (owner, ny, nz);
+        self.ys = bits(ys).collect();
+        self.zs = bits(zs).collect();
         self.data.clear();
+        self.axes.clear();
+        for shell in shells {
+            let Shell::Gaussian(g) = shell else { continue };
+            let l = g.l as usize;
+            for (alpha, _) in &g.primitives {
+                let (y, z) = (self.data.len(), self.data.len() + (l + 1) * ny);
+                let ymax = z + (l + 1) * nz;
+                self.data.resize(ymax + ny, 0.0);
+                fill_axis(&mut self.data[y..z], ys, g.center[1], *alpha, l);
+                fill_axis(&mut self.data[z..ymax], zs, g.center[2], *alpha, l);
+                let zmax = self.data[z..ymax]
+                    .iter()
+                    .fold(0.0f64, |m, v| m.max(v.abs()));
+                for j in 0..ny {
+                    self.data[ymax + j] =
+                        (0..=l).fold(0.0f64, |m, b| m.max(self.data[y + b * ny + j].abs()));
+                }
+                self.axes.push(Axes { y, z, ymax, zmax });
+            }
+        }
+    }
+
+    /// Prepares the slab at `x` with lines along z at `ys`, for the sampler `owner`.
+    pub(super) fn fill(&mut self, owner: u64, shells: &[Shell], x: f64, ys: &[f64], zs: &[f64]) {
+        let same = self.owner == owner
+            && !self.axes.is_empty()
+            && self.ys.iter().copied().eq(bits(ys))
+            && self.zs.iter().copied().eq(bits(zs));
+        if !same {
+            self.build_axes(owner, shells, ys, zs);
+        }
+        let ny = self.ny;
         self.ok.clear();
         self.prims.clear();
         self.first.clear();
+        let mut q = 0;
         for shell in shells {
             self.first.push(self.prims.len());
             let Shell::Gaussian(g) = shell else { continue };
@@ -56,6 +113,8 @@ impl Tables {
             let dx = x - g.center[0];
             let px = powers(dx);
             for ((alpha, _), d) in g.primitives.iter().zip(&g.d) {
+                let axes = self.axes[q];
+                q += 1;
                 let ex = d * exp_neg(-alpha * dx * dx);
                 let mut xpow = [0.0; 4];
                 for a in 0..=l {
@@ -65,18 +124,17 @@ impl Tables {
                 if xmax < SCREEN {
                     continue;
                 }
-                let (y, z) = (self.data.len(), self.data.len() + (l + 1) * ny);
-                self.data.resize(z + (l + 1) * nz, 0.0);
-                fill_axis(&mut self.data[y..z], ys, g.center[1], *alpha, l);
-                fill_axis(&mut self.data[z..], zs, g.center[2], *alpha, l);
-                let zmax = self.data[z..].iter().fold(0.0f64, |m, v| m.max(v.abs()));
                 let line = self.ok.len();
                 for j in 0..ny {
-                    let ymax = (0..=l).fold(0.0f64, |m, b| m.max(self.data[y + b * ny + j].abs()));
-                    let screened = xmax * ymax * zmax < SCREEN;
+                    let screened = xmax * self.data[axes.ymax + j] * axes.zmax < SCREEN;
                     self.ok.push(!screened);
                 }
-                self.prims.push(Prim { xpow, y, z, line });
+                self.prims.push(Prim {
+                    xpow,
+                    y: axes.y,
+                    z: axes.z,
+                    line,
+                });
             }
         }
         self.first.push(self.prims.len());
