@@ -9,6 +9,7 @@
 //! on this form, shell by shell.
 
 use super::harmonics::{cartesian_components, double_factorial_odd, solid_harmonic};
+use super::slater::{exp_neg, powers};
 use crate::error::{Error, Result};
 use std::f64::consts::PI;
 
@@ -190,30 +191,95 @@ impl GaussianShell {
     /// functions × points (function-major).
     pub fn values(&self, points: &[[f64; 3]], out: &mut [f64]) {
         let n = points.len();
-        let comps = cartesian_components(self.l);
-        let mut mono = vec![0.0; comps.len()];
         for (p, pt) in points.iter().enumerate() {
-            let (x, y, z) = (
+            let d = [
                 pt[0] - self.center[0],
                 pt[1] - self.center[1],
                 pt[2] - self.center[2],
-            );
-            let r2 = x * x + y * y + z * z;
+            ];
+            let r2 = d[0] * d[0] + d[1] * d[1] + d[2] * d[2];
             let radial: f64 = self
                 .primitives
                 .iter()
                 .zip(&self.d)
-                .map(|((a, _), d)| d * (-a * r2).exp())
+                .map(|((a, _), d)| d * exp_neg(-a * r2))
                 .sum();
-            for (m, c) in mono.iter_mut().zip(&comps) {
-                *m = x.powi(c[0] as i32) * y.powi(c[1] as i32) * z.powi(c[2] as i32);
-            }
+            self.angular(d, radial, &mut out[p..], n);
+        }
+    }
+
+    /// Values at `d.len()` points from their offsets `d` to the centre and the
+    /// primitives' e^(−α_k r²) (`ex`, primitive-major with stride `ex_stride`), which
+    /// every shell with this centre and these exponents shares (the s and p shells
+    /// of an sp set): the same numbers `values` computes. `out` is functions × `stride`.
+    pub(crate) fn values_shared(
+        &self,
+        d: &[[f64; 3]],
+        ex: &[f64],
+        ex_stride: usize,
+        out: &mut [f64],
+        stride: usize,
+    ) {
+        for (p, d) in d.iter().enumerate() {
+            let radial: f64 = self
+                .d
+                .iter()
+                .enumerate()
+                .map(|(k, d)| d * ex[k * ex_stride + p])
+                .sum();
+            self.angular(*d, radial, &mut out[p..], stride);
+        }
+    }
+
+    /// radial × (row · monomials) for every function into out[f·stride]; monomials
+    /// from power tables with the products `powi` makes (see `slater::powers`).
+    #[inline(always)]
+    fn angular(&self, d: [f64; 3], radial: f64, out: &mut [f64], stride: usize) {
+        if self.l == 0 {
+            // The one monomial is 1.0: the row sum is its single term, exactly.
             for (f, row) in self.rows.iter().enumerate() {
-                out[f * n + p] = radial * row.iter().zip(&mono).map(|(r, m)| r * m).sum::<f64>();
+                out[f * stride] = radial * row[0];
             }
+            return;
+        }
+        let [px, py, pz] = d.map(powers);
+        let comps = CARTESIAN[self.l as usize];
+        let mut mono = [0.0; 10];
+        for (m, c) in mono.iter_mut().zip(comps.iter()) {
+            *m = px[c[0] as usize] * py[c[1] as usize] * pz[c[2] as usize];
+        }
+        for (f, row) in self.rows.iter().enumerate() {
+            out[f * stride] = radial * row.iter().zip(&mono).map(|(r, m)| r * m).sum::<f64>();
         }
     }
 }
+
+/// `cartesian_components(l)` for l ≤ 3 as constants, so the hot path does not
+/// allocate them.
+pub(crate) const CARTESIAN: [&[[u32; 3]]; 4] = [
+    &[[0, 0, 0]],
+    &[[1, 0, 0], [0, 1, 0], [0, 0, 1]],
+    &[
+        [2, 0, 0],
+        [1, 1, 0],
+        [1, 0, 1],
+        [0, 2, 0],
+        [0, 1, 1],
+        [0, 0, 2],
+    ],
+    &[
+        [3, 0, 0],
+        [2, 1, 0],
+        [2, 0, 1],
+        [1, 2, 0],
+        [1, 1, 1],
+        [1, 0, 2],
+        [0, 3, 0],
+        [0, 2, 1],
+        [0, 1, 2],
+        [0, 0, 3],
+    ],
+];
 
 impl GaussianShell {
     /// Gradients of every function at every point; `out` is functions × points like
@@ -333,6 +399,19 @@ fn fill_axis(table: &mut [f64], ts: &[f64], c: f64, alpha: f64, l: usize) {
         for p in 0..=l {
             table[p * len + i] = v;
             v *= d;
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The constant table is the one `harmonics` builds (the order the rows use).
+    #[test]
+    fn cartesian_table_matches_harmonics() {
+        for l in 0..=3u32 {
+            assert_eq!(CARTESIAN[l as usize], cartesian_components(l).as_slice());
         }
     }
 }

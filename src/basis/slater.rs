@@ -2,11 +2,11 @@
 //! as in `harmonics`, evaluated exactly at points. N = (2ζ)^(n+1/2)/sqrt((2n)!)
 //! normalises the radial part; Y_lm is normalised on the sphere.
 
-use super::harmonics::{L_MAX, Polynomial, eval_polynomial, solid_harmonic};
+use super::harmonics::{L_MAX, Polynomial, solid_harmonic};
 use crate::error::{Error, Result};
 
 /// Beyond ζr = this the function is below 1e-20 of its peak for n ≤ 6: screened out.
-const SCREEN_ZETA_R: f64 = 60.0;
+pub(crate) const SCREEN_ZETA_R: f64 = 60.0;
 
 #[derive(Debug, Clone, PartialEq)]
 pub struct SlaterShell {
@@ -83,26 +83,69 @@ impl SlaterShell {
     /// Values of every function at every point; `out` is functions × points.
     pub fn values(&self, points: &[[f64; 3]], out: &mut [f64]) {
         let np = points.len();
-        let power = self.n as i32 - 1 - self.l as i32;
         for (p, pt) in points.iter().enumerate() {
-            let (x, y, z) = (
+            let d = [
                 pt[0] - self.center[0],
                 pt[1] - self.center[1],
                 pt[2] - self.center[2],
-            );
-            let r = (x * x + y * y + z * z).sqrt();
-            let radial = if self.zeta * r > SCREEN_ZETA_R {
+            ];
+            let r = (d[0] * d[0] + d[1] * d[1] + d[2] * d[2]).sqrt();
+            let radial = self.radial(r, || (-self.zeta * r).exp());
+            self.angular(d, radial, &mut out[p..], np);
+        }
+    }
+
+    /// Values at `d.len()` points from their offsets `d` to the centre, distances `r`
+    /// and `e` = e^(−ζr), which every shell with this centre and ζ shares (the s and p
+    /// shells of a valence set): the same numbers `values` computes. `out` is
+    /// functions × `stride`.
+    pub(crate) fn values_shared(
+        &self,
+        d: &[[f64; 3]],
+        r: &[f64],
+        e: &[f64],
+        out: &mut [f64],
+        stride: usize,
+    ) {
+        for (p, ((d, &r), &e)) in d.iter().zip(r).zip(e).enumerate() {
+            let radial = self.radial(r, || e);
+            self.angular(*d, radial, &mut out[p..], stride);
+        }
+    }
+
+    /// N r^(n−1−l) e^(−ζr), or 0 beyond the screening distance.
+    #[inline(always)]
+    fn radial(&self, r: f64, e: impl FnOnce() -> f64) -> f64 {
+        if self.zeta * r > SCREEN_ZETA_R {
+            0.0
+        } else {
+            self.norm * powi_binary(r, self.n as i32 - 1 - self.l as i32) * e()
+        }
+    }
+
+    /// radial × Y_lm for every function into out[f·stride]; the polynomial sums its
+    /// terms in the order and with the products `eval_polynomial` uses.
+    #[inline(always)]
+    fn angular(&self, d: [f64; 3], radial: f64, out: &mut [f64], stride: usize) {
+        if self.l == 0 {
+            // Y_00 is one constant term c·1·1·1 = c: the polynomial is c exactly.
+            for (f, h) in self.harmonics.iter().enumerate() {
+                out[f * stride] = if radial == 0.0 { 0.0 } else { radial * h[0].0 };
+            }
+            return;
+        }
+        let [px, py, pz] = d.map(powers);
+        for (f, h) in self.harmonics.iter().enumerate() {
+            out[f * stride] = if radial == 0.0 {
                 0.0
             } else {
-                self.norm * r.powi(power) * (-self.zeta * r).exp()
+                radial
+                    * h.iter()
+                        .map(|(c, [a, b, e])| {
+                            c * px[*a as usize] * py[*b as usize] * pz[*e as usize]
+                        })
+                        .sum::<f64>()
             };
-            for (f, h) in self.harmonics.iter().enumerate() {
-                out[f * np + p] = if radial == 0.0 {
-                    0.0
-                } else {
-                    radial * eval_polynomial(h, x, y, z)
-                };
-            }
         }
     }
 
@@ -147,6 +190,40 @@ impl SlaterShell {
     }
 }
 
+/// [1, x, x², x³] with the products `f64::powi` makes for these exponents (x·x and
+/// x·(x·x)), so tables replace calls without changing a bit (checked by test).
+#[inline(always)]
+pub(crate) fn powers(x: f64) -> [f64; 4] {
+    let x2 = x * x;
+    [1.0, x, x2, x * x2]
+}
+
+/// e^x, with the arguments where binary64 e^x underflows to exactly 0 answered
+/// without the library's slow underflow path (e^−746 < 2^−1075, half the smallest
+/// subnormal, rounds to 0): the same bits, checked by test.
+#[inline(always)]
+pub(crate) fn exp_neg(x: f64) -> f64 {
+    if x < -746.0 { 0.0 } else { x.exp() }
+}
+
+/// x^n for n ≥ 0 by the binary powering `f64::powi` performs at run time
+/// (compiler-builtins `__powidf2`), inlined: same bits, no call.
+#[inline(always)]
+pub(crate) fn powi_binary(x: f64, n: i32) -> f64 {
+    let (mut a, mut k, mut acc) = (x, n.unsigned_abs(), 1.0);
+    loop {
+        if k & 1 != 0 {
+            acc *= a;
+        }
+        k >>= 1;
+        if k == 0 {
+            break;
+        }
+        a *= a;
+    }
+    if n < 0 { 1.0 / acc } else { acc }
+}
+
 /// P(x, y, z) and ∇P for a polynomial given as (coefficient, powers) terms.
 fn polynomial_with_gradient(poly: &Polynomial, d: [f64; 3]) -> (f64, [f64; 3]) {
     let mut value = 0.0;
@@ -167,6 +244,33 @@ fn polynomial_with_gradient(poly: &Polynomial, d: [f64; 3]) -> (f64, [f64; 3]) {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The tables must reproduce `powi` bit for bit (the premise of using them), over
+    /// signs, tiny, huge and subnormal-producing magnitudes.
+    #[test]
+    fn power_tables_are_powi_bit_for_bit() {
+        let mut xs = vec![0.0, -0.0, 1.0, -1.0, 1e-300, -3e-110, 1e100, 7.5e-3];
+        let mut v = 0.123_456_789f64;
+        for _ in 0..2000 {
+            v = (v * 3.987_654_321 + 0.1).fract();
+            xs.push((v - 0.5) * 40.0);
+            xs.push((v - 0.5) * 1e-3);
+        }
+        for &x in &xs {
+            let t = powers(x);
+            for (n, v) in t.iter().enumerate() {
+                assert_eq!(v.to_bits(), x.powi(n as i32).to_bits(), "{x}^{n}");
+            }
+            for k in [1.0, 5.0, 50.0, 700.0, 745.0, 745.2, 746.0, 800.0, 1e5] {
+                let y = -k * x.abs();
+                assert_eq!(exp_neg(y).to_bits(), y.exp().to_bits(), "exp({y})");
+            }
+            for n in -2..=7 {
+                let want = x.powi(std::hint::black_box(n));
+                assert_eq!(powi_binary(x, n).to_bits(), want.to_bits(), "{x}^{n}");
+            }
+        }
+    }
 
     /// The hydrogen 1s function φ = e^(−r)/√π has ∇φ = −φ r̂ (closed form, textbook);
     /// only rounding separates the two, hence 1e-14.

@@ -1,7 +1,14 @@
-//! Batched evaluation: basis values are computed once per batch of points and shared
-//! by every requested field, so a cube with several fields costs little more than one.
+//! Batched evaluation: basis values are computed once per tile of `TILE` points and
+//! shared by every requested field, so a cube with several fields costs little more
+//! than one. A tile's basis values (functions × TILE) stay in cache while the orbital
+//! product and the fields read them; working memory is per thread (`scratch`).
+//! Every value is the same to the bit as the untiled evaluation gave (see `combine`,
+//! `groups`, `lattice`; checked against a verbatim copy in `identity`).
 
-use super::Field;
+use super::combine::Combo;
+use super::groups::{self, Group};
+use super::scratch::{Scratch, at_least, with_scratch};
+use super::{Field, TILE};
 use crate::basis::Shell;
 use crate::error::Result;
 use crate::grid::Slab;
@@ -28,7 +35,14 @@ pub struct FieldSampler {
     pub(super) offsets: Vec<usize>,
     pub(super) nbf: usize,
     pub(super) fields: Vec<Resolved>,
+    groups: Vec<Group>,
+    combo: Combo,
+    /// Tells this sampler's cached lattice tables from another's (`lattice`).
+    id: u64,
 }
+
+/// Source of `FieldSampler::id`.
+static NEXT_ID: std::sync::atomic::AtomicU64 = std::sync::atomic::AtomicU64::new(1);
 
 impl FieldSampler {
     /// Resolves orbital selectors now, so that an out-of-range orbital is an error
@@ -63,9 +77,13 @@ impl FieldSampler {
                 ),
             });
         }
+        let offsets = set.basis.offsets();
         Ok(FieldSampler {
+            groups: groups::build(&set.basis.shells, &offsets),
+            combo: Combo::new(&resolved, set.basis.len()),
+            id: NEXT_ID.fetch_add(1, std::sync::atomic::Ordering::Relaxed),
             shells: set.basis.shells.clone(),
-            offsets: set.basis.offsets(),
+            offsets,
             nbf: set.basis.len(),
             fields: resolved,
         })
@@ -77,12 +95,17 @@ impl FieldSampler {
 
     /// Fills `out` (points × fields) with the interleaved values at arbitrary points.
     pub fn evaluate(&self, points: &[[f64; 3]], out: &mut [f64]) {
-        let n = points.len();
-        let mut phi = vec![0.0; n * self.nbf];
-        for (shell, &o) in self.shells.iter().zip(&self.offsets) {
-            shell.values(points, &mut phi[o * n..(o + shell.len()) * n]);
+        let nf = self.check_out(points.len(), out);
+        if nf == 0 || points.is_empty() {
+            return;
         }
-        self.combine_fields(&phi, n, out);
+        with_scratch(|s| {
+            self.prepare(s);
+            for (tile, dst) in points.chunks(TILE).zip(out.chunks_mut(TILE * nf)) {
+                groups::tile(&self.groups, &self.shells, tile, s, false);
+                self.finish_tile(tile.len(), s, dst);
+            }
+        });
     }
 
     /// Like `evaluate` on a grid slab; Gaussian shells use the separable lattice
@@ -92,64 +115,93 @@ impl FieldSampler {
             return self.evaluate(slab.points, out);
         };
         let n = slab.points.len();
-        let mut phi = vec![0.0; n * self.nbf];
-        for (shell, &o) in self.shells.iter().zip(&self.offsets) {
-            let dst = &mut phi[o * n..(o + shell.len()) * n];
-            match shell {
-                Shell::Gaussian(g) => g.values_lattice(x, ys, zs, dst),
-                Shell::Slater(_) => shell.values(slab.points, dst),
-            }
+        let nf = self.check_out(n, out);
+        if nf == 0 || n == 0 {
+            return;
         }
-        self.combine_fields(&phi, n, out);
+        with_scratch(|s| {
+            self.prepare(s);
+            s.lattice.fill(self.id, &self.shells, x, ys, zs);
+            for (p0, len) in slab_tiles(ys.len(), zs.len()) {
+                let dst = &mut out[p0 * nf..(p0 + len) * nf];
+                groups::tile(
+                    &self.groups,
+                    &self.shells,
+                    &slab.points[p0..p0 + len],
+                    s,
+                    true,
+                );
+                s.lattice.tile(
+                    &self.shells,
+                    &self.offsets,
+                    p0,
+                    len,
+                    &mut s.phi,
+                    &mut s.live,
+                );
+                self.finish_tile(len, s, dst);
+            }
+        });
     }
 
-    /// From basis values (functions × points) to the interleaved field values.
-    fn combine_fields(&self, phi: &[f64], n: usize, out: &mut [f64]) {
+    fn check_out(&self, n: usize, out: &[f64]) -> usize {
         let nf = self.fields.len();
         assert_eq!(
             out.len(),
             n * nf,
             "output buffer must hold points × fields values"
         );
-        let mut psi = vec![0.0; n];
-        for (k, field) in self.fields.iter().enumerate() {
-            match field {
-                Resolved::Orbital(c) => {
-                    combine(phi, c, n, &mut psi);
-                    scatter(out, nf, k, psi.iter().copied());
-                }
-                Resolved::OrbitalDensity(c) => {
-                    combine(phi, c, n, &mut psi);
-                    scatter(out, nf, k, psi.iter().map(|v| v * v));
-                }
-                Resolved::OrbitalDeformation(c, q) => {
-                    combine(phi, c, n, &mut psi);
-                    for (p, v) in psi.iter_mut().enumerate() {
-                        let atomic: f64 = q
-                            .iter()
-                            .enumerate()
-                            .map(|(m, qm)| qm * phi[m * n + p] * phi[m * n + p])
-                            .sum();
-                        *v = *v * *v - atomic;
-                    }
-                    scatter(out, nf, k, psi.iter().copied());
-                }
-                Resolved::Density(list) => {
-                    let rho = density(phi, list, n, &mut psi);
-                    scatter(out, nf, k, rho.into_iter());
-                }
-                Resolved::Deformation(list, reference) => {
-                    let mut rho = density(phi, list, n, &mut psi);
-                    for (m, &r0) in reference.iter().enumerate().filter(|(_, r)| **r != 0.0) {
-                        for (r, p) in rho.iter_mut().zip(&phi[m * n..(m + 1) * n]) {
-                            *r -= r0 * p * p;
-                        }
-                    }
-                    scatter(out, nf, k, rho.into_iter());
-                }
-            }
-        }
+        nf
     }
+
+    /// Sizes this thread's scratch for this sampler.
+    fn prepare(&self, s: &mut Scratch) {
+        at_least(&mut s.phi, self.nbf * TILE);
+        at_least(&mut s.psi, self.combo.norb * TILE);
+        at_least(&mut s.ex, groups::max_primitives(&self.groups) * TILE);
+        at_least(&mut s.live, self.nbf);
+        at_least(&mut s.acc, TILE);
+    }
+
+    /// The tile's orbitals over its live functions, then its fields.
+    fn finish_tile(&self, n: usize, s: &mut Scratch, out: &mut [f64]) {
+        let mut active = std::mem::take(&mut s.active);
+        active.clear();
+        active.extend((0..self.nbf as u32).filter(|&m| s.live[m as usize]));
+        self.combo.orbitals(&s.phi, &active, n, &mut s.psi);
+        self.combo.fields(&s.phi, &s.psi, n, &mut s.acc, out);
+        s.active = active;
+    }
+}
+
+/// (first point, length) of the tiles of a slab of ny lines of nz points: whole
+/// lines when they fit in a tile, else each line cut into equal pieces, so the
+/// lattice path adds long contiguous runs.
+fn slab_tiles(ny: usize, nz: usize) -> impl Iterator<Item = (usize, usize)> {
+    let (per_line, chunk) = if nz <= TILE {
+        (1, nz)
+    } else {
+        let pieces = nz.div_ceil(TILE);
+        (pieces, nz.div_ceil(pieces))
+    };
+    let lines = if nz <= TILE {
+        (TILE / nz.max(1)).max(1)
+    } else {
+        1
+    };
+    let n = ny * nz;
+    let step = lines * nz;
+    (0..ny.div_ceil(lines)).flat_map(move |b| {
+        (0..per_line).filter_map(move |c| {
+            let p0 = b * step + c * chunk;
+            let end = if per_line == 1 {
+                (p0 + step).min(n)
+            } else {
+                (b * nz + (c + 1) * chunk).min((b + 1) * nz)
+            };
+            (p0 < end).then_some((p0, end - p0))
+        })
+    })
 }
 
 fn occupied(set: &OrbitalSet) -> Vec<(f64, Vec<f64>)> {
@@ -158,34 +210,4 @@ fn occupied(set: &OrbitalSet) -> Vec<(f64, Vec<f64>)> {
         .filter(|o| o.occupation > 0.0)
         .map(|o| (o.occupation, o.coefficients.clone()))
         .collect()
-}
-
-/// Σ_i n_i ψ_i(p)² at every point.
-fn density(phi: &[f64], list: &[(f64, Vec<f64>)], n: usize, psi: &mut [f64]) -> Vec<f64> {
-    let mut rho = vec![0.0; n];
-    for (occ, c) in list {
-        combine(phi, c, n, psi);
-        for (r, v) in rho.iter_mut().zip(psi.iter()) {
-            *r += occ * v * v;
-        }
-    }
-    rho
-}
-
-/// ψ(p) = Σ_μ c_μ φ_μ(p) for every point, with φ stored function-major.
-fn combine(phi: &[f64], c: &[f64], n: usize, psi: &mut [f64]) {
-    psi.fill(0.0);
-    for (m, &cm) in c.iter().enumerate() {
-        if cm != 0.0 {
-            for (v, p) in psi.iter_mut().zip(&phi[m * n..(m + 1) * n]) {
-                *v += cm * p;
-            }
-        }
-    }
-}
-
-fn scatter(out: &mut [f64], stride: usize, offset: usize, values: impl Iterator<Item = f64>) {
-    for (slot, v) in out.iter_mut().skip(offset).step_by(stride).zip(values) {
-        *slot = v;
-    }
 }

@@ -2,8 +2,21 @@
 //! `orbital-deformation:N`, `density` and `deformation`, and its batched evaluation at points.
 
 pub mod buildup;
+mod combine;
 mod eval;
 pub mod gradient;
+mod groups;
+#[cfg(test)]
+mod identity;
+mod lattice;
+#[cfg(test)]
+mod reference;
+mod scratch;
+
+/// Points per evaluation tile: a tile's basis values (functions × TILE doubles) stay
+/// in the second-level cache for the ~100 functions of the molecules this tool is
+/// for. A multiple of 8, the widest register block of `combine`.
+const TILE: usize = 128;
 
 pub use eval::FieldSampler;
 

@@ -1,0 +1,199 @@
+//! The tiled evaluation against the untiled one it replaced (`reference`, a
+//! verbatim copy): every value of every field kind must agree to the bit, on
+//! orthogonal slabs (separable path) and arbitrary points (direct path), for Slater
+//! and Gaussian (Cartesian and pure, s to f) bases, with 1, 2 and many fields.
+
+use super::reference::Old;
+use super::{Field, FieldSampler};
+use crate::grid::Slab;
+use crate::io::model::{LoadOptions, load_with, parse};
+use crate::solve::{MethodKind, OrbitalSet};
+use std::path::Path;
+
+fn example(name: &str) -> std::path::PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("examples")
+        .join(name)
+}
+
+/// Extended-Hückel benzene: Slater 2s/2p sharing ζ on carbon, free-atom reference.
+fn benzene() -> OrbitalSet {
+    let options = LoadOptions {
+        method: Some(MethodKind::ExtendedHuckel),
+        charge: None,
+    };
+    load_with(&example("benzene.xyz"), &options)
+        .unwrap()
+        .solve()
+        .unwrap()
+}
+
+/// The two-centre STO-3G model of the examples (contracted Gaussian s).
+fn h2_sto3g() -> OrbitalSet {
+    crate::io::model::load(&example("h2-cation-sto3g.toml"))
+        .unwrap()
+        .solve()
+        .unwrap()
+}
+
+/// H2⁺ bent off its axis in contracted s, Cartesian p, pure and Cartesian d, pure
+/// and Cartesian f shells (the model of tests/field_gradients.rs, extended).
+fn gaussian_spdf() -> OrbitalSet {
+    let text = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
+        atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0.3, 0, 1] }]\n\
+        [basis]\nset = \"custom\"\n[basis.shells]\nH = [\
+        { l = 0, primitives = [[3.0, 0.4], [0.5, 0.7]] }, \
+        { l = 1, primitives = [[1.0, 1.0]], cartesian = true }, \
+        { l = 2, primitives = [[0.8, 1.0]] }, \
+        { l = 2, primitives = [[1.5, 0.6], [0.4, 0.5]], cartesian = true }, \
+        { l = 3, primitives = [[0.6, 1.0]] }, \
+        { l = 3, primitives = [[0.7, 1.0]], cartesian = true }]\n";
+    parse(text, Path::new("t.toml")).unwrap().solve().unwrap()
+}
+
+fn field_sets(set: &OrbitalSet) -> Vec<Vec<Field>> {
+    let parse = |l: &[&str]| {
+        l.iter()
+            .map(|f| Field::parse(f).unwrap())
+            .collect::<Vec<_>>()
+    };
+    let mut sets = vec![
+        parse(&["orbital:homo"]),
+        parse(&["orbital:1", "orbital-density:homo"]),
+        parse(&["orbital-deformation:homo", "density"]),
+    ];
+    let mut many: Vec<Field> = (1..=set.orbitals.len().min(40))
+        .map(|i| Field::parse(&format!("orbital:{i}")).unwrap())
+        .collect();
+    many.extend(parse(&[
+        "density",
+        "orbital-density:1",
+        "orbital-deformation:1",
+    ]));
+    if set.reference.is_some() {
+        many.push(Field::Deformation);
+        sets.push(parse(&["deformation"]));
+    }
+    sets.push(many);
+    sets
+}
+
+fn assert_same(new: &[f64], old: &[f64], what: &str) {
+    assert_eq!(new.len(), old.len());
+    for (k, (a, b)) in new.iter().zip(old).enumerate() {
+        assert_eq!(
+            a.to_bits(),
+            b.to_bits(),
+            "{what}: value {k}: {a:e} against {b:e}"
+        );
+    }
+}
+
+/// Slabs of axis-aligned lattices: lines longer and shorter than a tile, point counts
+/// that are not multiples of it, and slabs far enough out that primitives and lines
+/// are screened away.
+fn check_slabs(set: &OrbitalSet, name: &str) {
+    let lattices: [(usize, usize, f64); 3] = [(23, 37, 0.35), (7, 300, 0.2), (40, 9, 1.3)];
+    for fields in field_sets(set) {
+        let sampler = FieldSampler::new(set, &fields).unwrap();
+        let nf = fields.len();
+        for (ny, nz, h) in lattices {
+            let ys: Vec<f64> = (0..ny)
+                .map(|j| -0.5 * h * ny as f64 + h * j as f64 + 0.013)
+                .collect();
+            let zs: Vec<f64> = (0..nz)
+                .map(|k| -0.5 * h * nz as f64 + h * k as f64 - 0.021)
+                .collect();
+            for x in [0.0, 0.77, -3.1, 9.5, 17.0, 31.0] {
+                let points: Vec<[f64; 3]> = ys
+                    .iter()
+                    .flat_map(|&y| zs.iter().map(move |&z| [x, y, z]))
+                    .collect();
+                let slab = Slab {
+                    points: &points,
+                    lattice: Some((x, &ys, &zs)),
+                };
+                let mut new = vec![f64::NAN; points.len() * nf];
+                let mut old = vec![f64::NAN; points.len() * nf];
+                sampler.evaluate_slab(&slab, &mut new);
+                Old(&sampler).evaluate_slab(&slab, &mut old);
+                assert_same(
+                    &new,
+                    &old,
+                    &format!("{name}, {nf} fields, slab {ny}×{nz} at x = {x}"),
+                );
+            }
+        }
+    }
+}
+
+/// A skewed lattice around the molecule and points far out (beyond the Slater
+/// screening radius and where every Gaussian exponential underflows), on the direct
+/// path, through both `evaluate` and `evaluate_slab` without a lattice.
+fn check_points(set: &OrbitalSet, name: &str) {
+    let mut points: Vec<[f64; 3]> = Vec::new();
+    for i in 0..15 {
+        for j in 0..13 {
+            for k in 0..11 {
+                let (a, b, c) = (i as f64 - 7.0, j as f64 - 6.0, k as f64 - 5.0);
+                points.push([0.6 * a + 0.2 * b, 0.55 * b + 0.15 * c, 0.5 * c + 0.1 * a]);
+            }
+        }
+    }
+    for k in 0..300 {
+        let t = k as f64 * 0.37;
+        let r = 20.0 + 0.3 * k as f64;
+        points.push([r * t.cos(), r * t.sin() * 0.6, r * 0.8 * t.sin()]);
+    }
+    for fields in field_sets(set) {
+        let sampler = FieldSampler::new(set, &fields).unwrap();
+        let nf = fields.len();
+        let mut new = vec![f64::NAN; points.len() * nf];
+        let mut old = vec![f64::NAN; points.len() * nf];
+        sampler.evaluate(&points, &mut new);
+        Old(&sampler).evaluate(&points, &mut old);
+        assert_same(&new, &old, &format!("{name}, {nf} fields, points"));
+        let slab = Slab {
+            points: &points[..1000],
+            lattice: None,
+        };
+        let mut new = vec![f64::NAN; 1000 * nf];
+        sampler.evaluate_slab(&slab, &mut new);
+        assert_same(
+            &new,
+            &old[..1000 * nf],
+            &format!("{name}, {nf} fields, skewed slab"),
+        );
+    }
+}
+
+#[test]
+fn slater_benzene_is_bit_identical() {
+    let set = benzene();
+    check_slabs(&set, "extended-Hückel benzene");
+    check_points(&set, "extended-Hückel benzene");
+}
+
+#[test]
+fn gaussian_sto3g_is_bit_identical() {
+    let set = h2_sto3g();
+    check_slabs(&set, "STO-3G H2+");
+    check_points(&set, "STO-3G H2+");
+}
+
+#[test]
+fn gaussian_s_to_f_is_bit_identical() {
+    let set = gaussian_spdf();
+    check_slabs(&set, "Gaussian s–f H2+");
+    check_points(&set, "Gaussian s–f H2+");
+}
+
+/// No points, no fields: nothing to write and no panic, as before.
+#[test]
+fn empty_requests_are_fine() {
+    let set = h2_sto3g();
+    let sampler = FieldSampler::new(&set, &[Field::Density]).unwrap();
+    sampler.evaluate(&[], &mut []);
+    let none = FieldSampler::new(&set, &[]).unwrap();
+    none.evaluate(&[[0.0; 3]; 5], &mut []);
+}
