@@ -16,7 +16,7 @@ static POW10: LazyLock<Vec<f64>> = LazyLock::new(|| {
 
 /// x · 10^k. Positive k up to 22 multiply by an exact power; negative k divide by
 /// one, which keeps the result correctly rounded where possible.
-#[inline(always)]
+#[inline]
 fn scale10(x: f64, k: i32, pow: &[f64]) -> f64 {
     if (0..=22).contains(&k) {
         x * pow[(k + POW_OFFSET) as usize]
@@ -69,7 +69,7 @@ pub fn push_e13(buf: &mut Vec<u8>, v: f64) -> Result<(), NotFinite> {
 }
 
 /// The 13 bytes [`push_e13`] appends, for writing into a pre-sized slot.
-#[inline]
+#[inline(always)]
 pub fn e13(v: f64) -> Result<[u8; 13], NotFinite> {
     if !v.is_finite() {
         return Err(NotFinite(v));
@@ -135,22 +135,11 @@ pub fn e13(v: f64) -> Result<[u8; 13], NotFinite> {
     Ok(out)
 }
 
-/// `x.round_ties_even()` for 0 ≤ x < 2^52, without the libm `rint` call that
-/// baseline x86-64 makes for it: adding 2^52 leaves no fraction bits, so the sum is
-/// rounded to an integer in the default round-to-nearest-even mode (IEEE 754 §4.3.1),
-/// and subtracting 2^52 again is exact. Mantissas here are below 10^7.
-#[inline(always)]
-fn round_even(x: f64) -> u64 {
-    const TWO52: f64 = 4_503_599_627_370_496.0;
-    debug_assert!((0.0..TWO52).contains(&x));
-    ((x + TWO52) - TWO52) as u64
-}
-
 const ZERO: &[u8; 13] = b"  0.00000E+00";
 
 /// The decimal exponent e and the rounded mantissa m (decimals + 1 digits) with
 /// a ≈ m · 10^(e − decimals), for a finite a > 0.
-#[inline]
+#[inline(always)]
 fn decompose(a: f64, decimals: i32) -> (i32, u64) {
     let pow: &[f64] = &POW10;
     let (lo, hi) = (10u64.pow(decimals as u32), 10u64.pow(decimals as u32 + 1));
@@ -163,14 +152,14 @@ fn decompose(a: f64, decimals: i32) -> (i32, u64) {
     } else if e + 1 + POW_OFFSET < pow.len() as i32 && a >= pow[(e + 1 + POW_OFFSET) as usize] {
         e += 1;
     }
-    let mut m = round_even(scale10(a, decimals - e, pow));
+    let mut m = scale10(a, decimals - e, pow).round_ties_even() as u64;
     if m >= hi {
         // 9.999995… rounds up to 10.00000: renormalise.
         e += 1;
-        m = round_even(scale10(a, decimals - e, pow));
+        m = scale10(a, decimals - e, pow).round_ties_even() as u64;
     } else if m < lo {
         e -= 1;
-        m = round_even(scale10(a, decimals - e, pow));
+        m = scale10(a, decimals - e, pow).round_ties_even() as u64;
     }
     (e, m)
 }
@@ -246,28 +235,6 @@ mod tests {
             let mut buf = Vec::new();
             assert!(push_e13(&mut buf, v).is_err());
             assert!(buf.is_empty());
-        }
-    }
-
-    /// Against the standard library's `round_ties_even`, ties and near-ties included.
-    #[test]
-    fn round_even_is_ties_to_even() {
-        for x in [
-            0.0,
-            0.5,
-            1.5,
-            2.5,
-            99_999.5,
-            100_000.5,
-            999_999.49999999,
-            4.5e6,
-            0.49999999999999994,
-        ] {
-            assert_eq!(round_even(x), x.round_ties_even() as u64, "{x}");
-        }
-        for i in 0..100_000u64 {
-            let x = i as f64 * 97.3125 + (i % 7) as f64 * 0.25;
-            assert_eq!(round_even(x), x.round_ties_even() as u64, "{x}");
         }
     }
 
