@@ -255,3 +255,58 @@ where
     .expect("an in-memory sink cannot fail");
     all
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::error::Error;
+    use std::sync::atomic::AtomicUsize;
+
+    fn grid(nx: usize) -> GridBox {
+        GridBox {
+            origin: [0.0; 3],
+            axes: [[1.0, 0.0, 0.0], [0.0, 1.0, 0.0], [0.0, 0.0, 1.0]],
+            counts: [nx, 3, 2],
+        }
+    }
+
+    /// Slabs reach the sink in order, each with its own points (x = slab index).
+    #[test]
+    fn slabs_arrive_in_order() {
+        let mut seen = Vec::new();
+        let first_x = |s: &Slab, v: &mut [f64]| v.fill(s.points[0][0]);
+        stream_slabs(
+            &grid(50),
+            1,
+            first_x,
+            |v| v[0],
+            |x| {
+                seen.push(x);
+                Ok(())
+            },
+        )
+        .unwrap();
+        assert_eq!(seen, (0..50).map(|i| i as f64).collect::<Vec<_>>());
+    }
+
+    /// A failing sink returns its error and the producer stops within the batches
+    /// in flight (at most three batches beyond the one that failed).
+    #[test]
+    fn a_failing_sink_stops_the_producer() {
+        let evaluated = AtomicUsize::new(0);
+        let count = |_: &Slab, _: &mut [f64]| {
+            evaluated.fetch_add(1, Ordering::SeqCst);
+        };
+        let e = stream_slabs(
+            &grid(1000),
+            1,
+            count,
+            |_| (),
+            |_| Err(Error::input("sink full")),
+        )
+        .unwrap_err();
+        assert!(e.to_string().contains("sink full"));
+        let n = evaluated.load(Ordering::SeqCst);
+        assert!(n <= 4 * batch_len(), "{n} slabs evaluated");
+    }
+}
