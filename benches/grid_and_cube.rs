@@ -7,6 +7,8 @@
 //! * `cube_write` − `grid_evaluation` is the cost of formatting and writing beyond
 //!   evaluation; divided by `plain_write` it is the "× the plain write" figure.
 //! * `format_slab` (one thread, no I/O) against `plain_write`.
+//! * `cube_write_gzip` (the same through the `.gz` sink, parallel gzip members) with
+//!   `cube_write`: the goal is at most 1.5× the plain cube's time.
 
 use std::io::{BufWriter, Write};
 use std::path::Path;
@@ -16,6 +18,7 @@ use divan::Bencher;
 use divan::counter::{BytesCount, ItemsCount};
 use lobecast::field::{Field, FieldSampler};
 use lobecast::grid::{GridBox, stream_slabs};
+use lobecast::io::cube::sink::CubeSink;
 use lobecast::io::cube::writer::format_slab;
 use lobecast::io::cube::{CubeAtom, CubeHeader, write_streaming};
 
@@ -89,6 +92,22 @@ fn cube_write(bencher: Bencher) {
     });
     let written = std::fs::metadata(&path).unwrap().len();
     assert_eq!(written, bytes, "predicted size");
+}
+
+#[divan::bench(sample_count = 5, sample_size = 1)]
+fn cube_write_gzip(bencher: Bencher) {
+    let (sampler, header) = &*SETUP;
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("bench.cube.gz");
+    // Counted in uncompressed bytes, to compare with `cube_write`.
+    bencher
+        .counter(BytesCount::new(header.predicted_bytes()))
+        .bench(|| {
+            let mut file = std::fs::File::create(&path).unwrap();
+            let mut w = CubeSink::new(&mut file, &path);
+            write_streaming(header, |s, v| sampler.evaluate_slab(s, v), &mut w, &|_| {}).unwrap();
+            w.finish().unwrap();
+        });
 }
 
 #[divan::bench(sample_count = 5, sample_size = 1)]

@@ -6,7 +6,7 @@ pub mod plane;
 mod sampler;
 pub mod slab_rule;
 
-pub use sampler::{Slab, sample_all, stream_slabs};
+pub use sampler::{Slab, sample_all, stream_slabs, stream_slots};
 
 use crate::chem::Molecule;
 use crate::error::{Error, Result};

@@ -64,17 +64,22 @@ impl std::fmt::Display for NotFinite {
 /// [`MAX_EXPONENT`]). Non-finite values are refused and nothing is appended.
 #[inline]
 pub fn push_e13(buf: &mut Vec<u8>, v: f64) -> Result<(), NotFinite> {
+    buf.extend_from_slice(&e13(v)?);
+    Ok(())
+}
+
+/// The 13 bytes [`push_e13`] appends, for writing into a pre-sized slot.
+#[inline(always)]
+pub fn e13(v: f64) -> Result<[u8; 13], NotFinite> {
     if !v.is_finite() {
         return Err(NotFinite(v));
     }
     if v == 0.0 {
-        buf.extend_from_slice(ZERO);
-        return Ok(());
+        return Ok(*ZERO);
     }
     let (mut e, mut m) = decompose(v.abs(), 5);
     if e < MIN_EXPONENT {
-        buf.extend_from_slice(ZERO);
-        return Ok(());
+        return Ok(*ZERO);
     }
     let decimals = if e > MAX_EXPONENT {
         (e, m) = decompose(v.abs(), 4);
@@ -127,15 +132,14 @@ pub fn push_e13(buf: &mut Vec<u8>, v: f64) -> Result<(), NotFinite> {
         out[p] = b'-';
     }
     debug_assert!(p >= 1, "a written value must keep its separating space");
-    buf.extend_from_slice(&out);
-    Ok(())
+    Ok(out)
 }
 
 const ZERO: &[u8; 13] = b"  0.00000E+00";
 
 /// The decimal exponent e and the rounded mantissa m (decimals + 1 digits) with
 /// a ≈ m · 10^(e − decimals), for a finite a > 0.
-#[inline]
+#[inline(always)]
 fn decompose(a: f64, decimals: i32) -> (i32, u64) {
     let pow: &[f64] = &POW10;
     let (lo, hi) = (10u64.pow(decimals as u32), 10u64.pow(decimals as u32 + 1));

@@ -1,11 +1,13 @@
-//! Streaming cube writer: header first, then slabs formatted in parallel and written
-//! in order, so memory stays bounded for any grid.
+//! Streaming cube writer: header first, then slabs formatted in parallel into
+//! fixed-width slots (every value is 13 bytes, every line six values) and written in
+//! order by the calling thread while the next slabs are evaluated, so memory stays
+//! bounded for any grid.
 
 use std::io::Write;
 
-use super::format::{NotFinite, push_e13};
+use super::format::{NotFinite, e13, push_e13};
 use crate::error::{Error, Result};
-use crate::grid::{GridBox, Slab, stream_slabs};
+use crate::grid::{GridBox, Slab, stream_slots};
 
 /// Values on one line, as is usual for the layout.
 pub const PER_LINE: usize = 6;
@@ -113,12 +115,16 @@ impl CubeHeader {
         self.grid.counts[2] * self.field_count()
     }
 
+    /// Bytes of one formatted row: 13 per value and a new line per line of six.
+    fn row_bytes(&self) -> u64 {
+        let row = self.row_len() as u64;
+        row * WIDTH as u64 + row.div_ceil(PER_LINE as u64)
+    }
+
     /// Exact size of the file this header and its values make, in bytes.
     pub fn predicted_bytes(&self) -> u64 {
-        let row = self.row_len() as u64;
-        let lines_per_row = row.div_ceil(PER_LINE as u64);
         let rows = (self.grid.counts[0] * self.grid.counts[1]) as u64;
-        self.text().len() as u64 + rows * (row * WIDTH as u64 + lines_per_row)
+        self.text().len() as u64 + rows * self.row_bytes()
     }
 }
 
@@ -158,10 +164,36 @@ pub fn not_finite_error(grid: &GridBox, point: usize, field: usize, v: f64) -> E
     ))
 }
 
+/// Formats one slab's values into `out`, which must hold exactly their formatted
+/// bytes: the same bytes as [`format_slab`], written into fixed 13-byte slots.
+pub fn format_slab_into(
+    values: &[f64],
+    row_len: usize,
+    out: &mut [u8],
+) -> std::result::Result<(), (usize, f64)> {
+    let mut p = 0;
+    let mut at = 0;
+    for row in values.chunks(row_len) {
+        for line in row.chunks(PER_LINE) {
+            for &v in line {
+                let text = e13(v).map_err(|NotFinite(v)| (at, v))?;
+                out[p..p + WIDTH].copy_from_slice(&text);
+                p += WIDTH;
+                at += 1;
+            }
+            out[p] = b'\n';
+            p += 1;
+        }
+    }
+    debug_assert_eq!(p, out.len(), "the slot holds exactly the slab's bytes");
+    Ok(())
+}
+
 /// Writes header and values. `eval` fills interleaved values (points × fields);
 /// `progress` is told after every slab. A value that is not finite stops the writing
 /// with an input error before its slab is written (the caller's temporary file is
-/// then discarded).
+/// then discarded). Slabs reach `out` in batches of several, in order; a gzip
+/// [`super::sink::CubeSink`] compresses them in parallel.
 pub fn write_streaming<W, E>(
     header: &CubeHeader,
     eval: E,
@@ -176,24 +208,24 @@ where
     out.write_all(header.text().as_bytes()).map_err(io)?;
     let row_len = header.row_len();
     let fields = header.field_count();
-    let slab_points = header.grid.counts[1] * header.grid.counts[2];
-    let mut done = 0;
-    stream_slabs(
+    let [_, ny, nz] = header.grid.counts;
+    let slab_bytes = usize::try_from(header.row_bytes())
+        .ok()
+        .and_then(|r| r.checked_mul(ny))
+        .ok_or_else(|| Error::input("one slab of the grid is too large to hold in memory"))?;
+    stream_slots(
         &header.grid,
-        header.field_count(),
+        fields,
+        slab_bytes,
         eval,
-        |values| {
-            let mut buf = Vec::with_capacity(values.len() * (WIDTH + 1));
-            format_slab(values, row_len, &mut buf).map(|()| buf)
+        |i, values, slot| {
+            format_slab_into(values, row_len, slot).map_err(|(at, v)| {
+                not_finite_error(&header.grid, i * ny * nz + at / fields, at % fields, v)
+            })
         },
-        |formatted| {
-            let bytes = formatted.map_err(|(at, v)| {
-                let point = done * slab_points + at / fields;
-                not_finite_error(&header.grid, point, at % fields, v)
-            })?;
-            out.write_all(&bytes).map_err(io)?;
-            done += 1;
-            progress(done);
+        |slabs, bytes| {
+            out.write_all(bytes).map_err(io)?;
+            slabs.for_each(|i| progress(i + 1));
             Ok(())
         },
     )?;
