@@ -182,3 +182,21 @@ fn csv_energies_equal_solve_and_png_records_dpi() {
     // 300 dpi = 300 / 0.0254 px per metre = 11811 (PNG spec, pHYs chunk).
     assert_eq!(r.info().pixel_dims.unwrap().xppu, 11811);
 }
+
+/// An orbital file draws its levels, but has no Hamiltonian to solve a fragment
+/// with: `--fragments` is refused with one error line and no file written.
+#[test]
+fn orbital_files_draw_levels_but_refuse_fragments() {
+    let dir = tempfile::tempdir().unwrap();
+    let model = example("h2-cation.toml");
+    ok(
+        dir.path(),
+        &["solve", model.to_str().unwrap(), "--json", "o.json"],
+    );
+    ok(dir.path(), &["levels", "o.json", "--png", "l.png"]);
+    let out = common::run(
+        dir.path(),
+        &["levels", "o.json", "--fragments", "1:2", "--png", "f.png"],
+    );
+    common::assert_input_error(dir.path(), &out, "read from a file", &["l.png", "o.json"]);
+}

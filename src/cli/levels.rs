@@ -162,6 +162,9 @@ pub fn run(args: LevelsArgs) -> Result<()> {
         args.memory.memory,
         &mut |_| {},
     )?;
+    if set.orbitals.is_empty() {
+        return Err(Error::input("the source has no orbitals to draw"));
+    }
     let (frags, weights) = match &groups {
         Some(g) => {
             let f = fragments::solve_fragments(&set, &model.method, g, args.memory.memory)?;
