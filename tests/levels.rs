@@ -200,3 +200,31 @@ fn orbital_files_draw_levels_but_refuse_fragments() {
     );
     common::assert_input_error(dir.path(), &out, "read from a file", &["l.png", "o.json"]);
 }
+
+/// Text has fixed pixel sizes, so a diagram asked for narrower than its columns
+/// need grows to the documented minimum (680 px with fragments) instead of
+/// overlapping its labels.
+#[test]
+fn a_narrow_diagram_grows_to_fit() {
+    let dir = tempfile::tempdir().unwrap();
+    let model = example("h2-cation.toml");
+    let m = model.to_str().unwrap();
+    ok(
+        dir.path(),
+        &[
+            "levels",
+            m,
+            "--fragments",
+            "1:2",
+            "--size",
+            "300",
+            "--png",
+            "l.png",
+        ],
+    );
+    let dec = png::Decoder::new(std::io::BufReader::new(
+        std::fs::File::open(dir.path().join("l.png")).unwrap(),
+    ));
+    let r = dec.read_info().unwrap();
+    assert_eq!(r.info().width, lobecast::plot::levels::MIN_WIDTH_SIDES);
+}

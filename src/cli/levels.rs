@@ -226,6 +226,12 @@ fn csv_text(set: &OrbitalSet, frags: &[Fragment], w: &[Vec<Vec<f64>>]) -> String
     t
 }
 
+/// An energy of the diagram's unit as a footnote shows it, with a true minus sign.
+fn signed(x: f64, ev: bool) -> String {
+    let digits = if ev { 2 } else { 4 };
+    format!("{x:.digits$}").replace('-', "−")
+}
+
 /// "1-3, 5": atom numbers (from 1) in short form.
 fn atom_list(atoms: &[usize]) -> String {
     let mut parts: Vec<String> = Vec::new();
@@ -336,8 +342,9 @@ fn diagram(
     }
     if left_out + frag_out > 0 {
         notes.push(format!(
-            "Outside the window ({:.4}, {:.4}) {unit}, not drawn: {left_out} molecular and {frag_out} fragment level(s).",
-            window.0, window.1
+            "Outside the window {} to {} {unit}, not drawn: {left_out} molecular and {frag_out} fragment level(s).",
+            signed(window.0, req.ev),
+            signed(window.1, req.ev)
         ));
     }
     let mut columns: Vec<Column> = frags

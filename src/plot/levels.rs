@@ -63,6 +63,13 @@ const GAP: f32 = 4.0;
 const ARROW: f32 = 14.0;
 /// Horizontal run of the leader from a bar's end to its moved label (px).
 const LEADER: f32 = 10.0;
+/// Sideways step between the electrons of crowded neighbouring levels (px).
+const CROWD_STEP: f32 = 28.0;
+/// Smallest widths (px) at which labels, captions and electrons stay apart, and the
+/// smallest height of the plot region.
+pub const MIN_WIDTH: u32 = 420;
+pub const MIN_WIDTH_SIDES: u32 = 680;
+const MIN_PLOT_H: f32 = 420.0;
 const BAR: Colour = Colour::INK;
 const HILITE: Colour = PALETTE[1];
 
@@ -80,7 +87,14 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
             "a level diagram has no fragment columns or exactly two",
         ));
     }
-    let w = d.width as f32;
+    // Text has fixed pixel sizes, so a diagram grows to the width its columns and
+    // labels need rather than squeezing them (as the charts do).
+    let min_w = if d.sides.is_empty() {
+        MIN_WIDTH
+    } else {
+        MIN_WIDTH_SIDES
+    };
+    let w = d.width.max(min_w) as f32;
     let note_lines: Vec<String> = d
         .footnotes
         .iter()
@@ -93,8 +107,8 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
         .max()
         .unwrap_or(0);
     let caption_h = caption_rows as f32 * line_height(FONT) * 1.2;
-    let h = (w * RATIO + notes_h + caption_h).ceil();
-    let mut c = Canvas::new(d.width, h as u32, Colour::WHITE);
+    let h = ((w * RATIO).max(MIN_PLOT_H) + notes_h + caption_h).ceil();
+    let mut c = Canvas::new(w as u32, h as u32, Colour::WHITE);
     furniture::title(&mut c, &d.title);
 
     let (lo, hi) = d.window;
@@ -113,7 +127,10 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
     let x1 = w - MARGIN;
     let top = MARGIN + line_height(TITLE) + 2.0 * line_height(FONT);
     let bottom = h - MARGIN - notes_h - caption_h - GAP;
-    let y_px = |e: f64| bottom - ((e - lo) / (hi - lo)) as f32 * (bottom - top);
+    // The window's ends sit an arrow's length inside the axis, so the electrons of a
+    // level at either end stay clear of the captions and the title.
+    let (y_lo, y_hi) = (bottom - ARROW, top + ARROW);
+    let y_px = |e: f64| y_lo - ((e - lo) / (hi - lo)) as f32 * (y_lo - y_hi);
 
     // The energy axis.
     c.stroke(&[(x0, top), (x0, bottom)], THIN, Colour::INK, None);
@@ -171,24 +188,49 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
         let label_side = if k == 1 { HAlign::Right } else { HAlign::Left };
         let mut label_ys: Vec<f32> = groups.iter().map(|g| g.y).collect();
         spread(&mut label_ys, line_height(FONT) + 1.0, top, bottom);
-        // Electron arrows no longer than the room to the neighbouring bars.
+        // Electron arrows no longer than the room to the neighbouring bars; bars
+        // closer than an arrow form a crowd whose arrows step sideways, so each
+        // level's electrons stay apart from its neighbours'.
         let room: Vec<f32> = (0..groups.len())
             .map(|i| {
                 let below = i.checked_sub(1).map(|j| groups[j].y - groups[i].y);
                 let above = groups.get(i + 1).map(|n| groups[i].y - n.y);
                 let near = below.into_iter().chain(above).fold(f32::INFINITY, f32::min);
-                (0.8 * near).clamp(6.0, ARROW)
+                (0.8 * near).clamp(11.0, ARROW)
             })
             .collect();
+        let mut shift = vec![0.0f32; groups.len()];
+        let mut i = 0;
+        while i < groups.len() {
+            let mut j = i;
+            while j + 1 < groups.len() && groups[j].y - groups[j + 1].y < ARROW {
+                j += 1;
+            }
+            let mid = (i + j) as f32 / 2.0;
+            for (t, v) in shift.iter_mut().enumerate().take(j + 1).skip(i) {
+                *v = (t as f32 - mid) * CROWD_STEP;
+            }
+            i = j + 1;
+        }
         for (gi, (g, ly)) in groups.iter().zip(label_ys).enumerate() {
             let n = g.members.len() as f32;
             let sub = (g.right - g.left - (n - 1.0) * 2.0 * GAP) / n;
             for (i, lev) in g.members.iter().enumerate() {
                 let xa = g.left + i as f32 * (sub + 2.0 * GAP);
-                let frontier = k == 0 && (Some(lev.number) == d.homo || Some(lev.number) == d.lumo);
+                // A degenerate HOMO or LUMO level is marked as a whole.
+                let frontier = k == 0
+                    && g.members
+                        .iter()
+                        .any(|m| Some(m.number) == d.homo || Some(m.number) == d.lumo);
                 let colour = if frontier { HILITE } else { BAR };
                 c.fill_rect(xa, g.y - 1.5, sub, 3.0, colour);
-                electrons(&mut c, xa + sub / 2.0, g.y, lev.occupation, room[gi]);
+                electrons(
+                    &mut c,
+                    xa + sub / 2.0 + shift[gi],
+                    g.y,
+                    lev.occupation,
+                    room[gi],
+                );
             }
             let mut text_ = g
                 .members
