@@ -178,7 +178,7 @@ pub fn run(args: LevelsArgs) -> Result<()> {
         files.push((slot, csv_text(&set, &frags, &weights).into_bytes()));
     }
     if let Some(slot) = png {
-        let d = diagram(&args, &req, &set, &frags, &weights);
+        let d = diagram(&args, &req, &set, &frags, &weights)?;
         meta.title = Some(d.title.clone());
         files.push((slot, draw(&d)?.encode_png(&meta)?));
     }
@@ -269,7 +269,7 @@ fn diagram(
     set: &OrbitalSet,
     frags: &[Fragment],
     w: &[Vec<Vec<f64>>],
-) -> Diagram {
+) -> Result<Diagram> {
     let to_unit = |e: f64| if req.ev { hartree_to_ev(e) } else { e };
     let unit = if req.ev { "eV" } else { "hartree" };
     let mol = levels_of(set, &to_unit);
@@ -314,6 +314,15 @@ fn diagram(
     let inside = |l: &&Level| l.energy >= window.0 && l.energy <= window.1;
     let cut = |ls: &[Level]| ls.iter().filter(inside).cloned().collect::<Vec<_>>();
     let middle = cut(&mol);
+    if middle.is_empty() {
+        return Err(Error::input(format!(
+            "no orbital level lies in --window {} to {} {unit}: the levels run from {} to {}",
+            signed(window.0, req.ev),
+            signed(window.1, req.ev),
+            signed(mol[0].energy, req.ev),
+            signed(mol[mol.len() - 1].energy, req.ev)
+        )));
+    }
     let side_cols: Vec<Vec<Level>> = sides.iter().map(|s| cut(s)).collect();
     let left_out = mol.len() - middle.len();
     let frag_out: usize = sides
@@ -365,7 +374,7 @@ fn diagram(
     if columns.len() > 2 {
         columns.clear();
     }
-    Diagram {
+    Ok(Diagram {
         title: args
             .title
             .clone()
@@ -381,5 +390,5 @@ fn diagram(
         degeneracy: to_unit(DEGENERATE_EV / HARTREE_IN_EV),
         footnotes: notes,
         width: req.size,
-    }
+    })
 }
