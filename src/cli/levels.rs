@@ -56,7 +56,8 @@ pub struct LevelsArgs {
     /// Title instead of the automatic one
     #[arg(long)]
     pub title: Option<String>,
-    /// Width of the figure in pixels, 300 to 4000
+    /// Width of the figure in pixels, 300 to 4000; a diagram grows to at least 420
+    /// (680 with fragments) so that its text never overlaps
     #[arg(
         long,
         value_name = "PIXELS",

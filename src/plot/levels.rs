@@ -409,8 +409,12 @@ fn gap_arrow(c: &mut Canvas, d: &Diagram, middle: &[Placed], y_px: &dyn Fn(f64) 
         .iter()
         .find(|m| m.number == l)
         .map_or(0.0, |m| m.energy);
-    let x = gh.left.min(gl.left) - 12.0;
+    // No molecular level lies between HOMO and LUMO, so the arrow and its text
+    // sit inside the middle column, clear of the link lines; a gap too small for
+    // the text puts it beside the column instead.
     let (ya, yb) = (y_px(eh), y_px(el));
+    let inside = ya - yb > 2.0 * line_height(FONT);
+    let x = gh.left.max(gl.left) + if inside { 14.0 } else { -12.0 };
     c.stroke(&[(x, ya), (x, yb)], 1.4, HILITE, None);
     for (tip, s) in [(yb, 1.0), (ya, -1.0)] {
         c.stroke(
@@ -426,5 +430,10 @@ fn gap_arrow(c: &mut Canvas, d: &Diagram, middle: &[Placed], y_px: &dyn Fn(f64) 
     } else {
         format!("gap {:.4} {}", el - eh, d.unit)
     };
-    boxed(c, &gap, x - 5.0, (ya + yb) / 2.0, HAlign::Right);
+    let (tx, at) = if inside {
+        (x + 6.0, HAlign::Left)
+    } else {
+        (x - 5.0, HAlign::Right)
+    };
+    boxed(c, &gap, tx, (ya + yb) / 2.0, at);
 }
