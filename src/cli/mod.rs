@@ -9,6 +9,7 @@ mod curve_charts;
 mod curve_report;
 pub mod demo;
 mod inspect;
+mod levels;
 mod profile;
 mod progress;
 mod slice;
@@ -58,6 +59,9 @@ enum Command {
     Slice(slice::SliceArgs),
     /// Follow fields along a line between atoms or points: CSV and a PNG chart
     Profile(profile::ProfileArgs),
+    /// Draw the orbital energy levels (PNG), optionally with two fragments' levels and
+    /// the weights joining them (CSV)
+    Levels(levels::LevelsArgs),
     /// Draw isosurfaces in 3-D around the molecule (PNG) and write them as meshes
     /// (glTF, PLY, OBJ)
     Surface(surface::SurfaceArgs),
@@ -78,6 +82,7 @@ pub fn main() -> i32 {
         Command::Combine(a) => combine::run(a),
         Command::Slice(a) => slice::run(a),
         Command::Profile(a) => profile::run(a),
+        Command::Levels(a) => levels::run(a),
         Command::Surface(a) => surface::run(a),
     };
     match result {

@@ -7,6 +7,7 @@ pub mod chart;
 pub mod curve;
 pub mod frame;
 pub mod furniture;
+pub mod levels;
 pub mod profile;
 
 use crate::render::canvas::Colour;

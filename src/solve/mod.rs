@@ -6,6 +6,7 @@ pub mod curve;
 pub mod degenerate;
 pub mod eigen;
 pub mod estimate;
+pub mod fragments;
 pub mod huckel;
 pub mod huckel_params;
 mod method;
