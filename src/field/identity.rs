@@ -5,50 +5,58 @@
 
 use super::reference::Old;
 use super::{Field, FieldSampler};
+use crate::basis::BasisSpec;
+use crate::chem::Molecule;
+use crate::chem::units::LengthUnit;
 use crate::grid::Slab;
-use crate::io::model::{LoadOptions, load_with, parse};
-use crate::solve::{MethodKind, OrbitalSet};
-use std::path::Path;
+use crate::solve::huckel_params::HuckelOptions;
+use crate::solve::{Method, OrbitalSet, orbitals_for};
 
-fn example(name: &str) -> std::path::PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .join("examples")
-        .join(name)
+/// Extended-Hückel benzene (examples/benzene.xyz, read here by hand so that this
+/// test stays below the file readers): Slater 2s/2p sharing ζ on carbon, free-atom
+/// reference.
+fn benzene() -> OrbitalSet {
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/examples/benzene.xyz");
+    let text = std::fs::read_to_string(path).unwrap();
+    let atoms: Vec<(String, [f64; 3])> = text
+        .lines()
+        .skip(2)
+        .filter(|l| !l.trim().is_empty())
+        .map(|l| {
+            let w: Vec<&str> = l.split_whitespace().collect();
+            let c = |i: usize| LengthUnit::Angstrom.to_bohr(w[i].parse::<f64>().unwrap());
+            (w[0].to_string(), [c(1), c(2), c(3)])
+        })
+        .collect();
+    let atoms: Vec<(&str, [f64; 3])> = atoms.iter().map(|(s, p)| (s.as_str(), *p)).collect();
+    let molecule = Molecule::from_symbols(&atoms, 0).unwrap();
+    orbitals_for(&molecule, &Method::ExtendedHuckel(HuckelOptions::default())).unwrap()
 }
 
-/// Extended-Hückel benzene: Slater 2s/2p sharing ζ on carbon, free-atom reference.
-fn benzene() -> OrbitalSet {
-    let options = LoadOptions {
-        method: Some(MethodKind::ExtendedHuckel),
-        charge: None,
-    };
-    load_with(&example("benzene.xyz"), &options)
-        .unwrap()
-        .solve()
-        .unwrap()
+/// One electron over two protons 2 bohr apart in `spec` (the ion of the examples).
+fn one_electron(spec: &BasisSpec, lower: [f64; 3]) -> OrbitalSet {
+    let molecule = Molecule::from_symbols(&[("H", lower), ("H", [0.0, 0.0, 1.0])], 1).unwrap();
+    let basis = spec.build(&molecule).unwrap();
+    orbitals_for(&molecule, &Method::OneElectron { basis }).unwrap()
 }
 
 /// The two-centre STO-3G model of the examples (contracted Gaussian s).
 fn h2_sto3g() -> OrbitalSet {
-    crate::io::model::load(&example("h2-cation-sto3g.toml"))
-        .unwrap()
-        .solve()
-        .unwrap()
+    one_electron(&BasisSpec::named("sto-3g"), [0.0, 0.0, -1.0])
 }
 
 /// H2⁺ bent off its axis in contracted s, Cartesian p, pure and Cartesian d, pure
 /// and Cartesian f shells (the model of tests/field_gradients.rs, extended).
 fn gaussian_spdf() -> OrbitalSet {
-    let text = "[molecule]\nunits = \"bohr\"\ncharge = 1\n\
-        atoms = [{ element = \"H\", position = [0, 0, -1] }, { element = \"H\", position = [0.3, 0, 1] }]\n\
-        [basis]\nset = \"custom\"\n[basis.shells]\nH = [\
+    let text = "set = \"custom\"\n[shells]\nH = [\
         { l = 0, primitives = [[3.0, 0.4], [0.5, 0.7]] }, \
         { l = 1, primitives = [[1.0, 1.0]], cartesian = true }, \
         { l = 2, primitives = [[0.8, 1.0]] }, \
         { l = 2, primitives = [[1.5, 0.6], [0.4, 0.5]], cartesian = true }, \
         { l = 3, primitives = [[0.6, 1.0]] }, \
         { l = 3, primitives = [[0.7, 1.0]], cartesian = true }]\n";
-    parse(text, Path::new("t.toml")).unwrap().solve().unwrap()
+    let spec: BasisSpec = toml::from_str(text).unwrap();
+    one_electron(&spec, [0.3, 0.0, -1.0])
 }
 
 fn field_sets(set: &OrbitalSet) -> Vec<Vec<Field>> {
