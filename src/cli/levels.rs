@@ -341,7 +341,7 @@ fn diagram(
             .map(str::to_string),
     );
     notes.push(format!(
-        "Levels within {DEGENERATE_EV:.0e} eV{} are degenerate and drawn side by side; arrows are electrons.",
+        "Levels within {DEGENERATE_EV:.0e} eV{} are degenerate and drawn side by side; arrows are electrons (a degenerate set's electrons as whole arrows, singles before pairs).",
         if req.ev { String::new() } else { format!(" ({:.1e} hartree)", DEGENERATE_EV / HARTREE_IN_EV) }
     ));
     if !frags.is_empty() {

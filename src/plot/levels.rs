@@ -215,7 +215,8 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
         for (gi, (g, ly)) in groups.iter().zip(label_ys).enumerate() {
             let n = g.members.len() as f32;
             let sub = (g.right - g.left - (n - 1.0) * 2.0 * GAP) / n;
-            for (i, lev) in g.members.iter().enumerate() {
+            let whole = hund_filling(&g.members);
+            for (i, whole_i) in whole.iter().enumerate() {
                 let xa = g.left + i as f32 * (sub + 2.0 * GAP);
                 // A degenerate HOMO or LUMO level is marked as a whole.
                 let frontier = k == 0
@@ -224,13 +225,7 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
                         .any(|m| Some(m.number) == d.homo || Some(m.number) == d.lumo);
                 let colour = if frontier { HILITE } else { BAR };
                 c.fill_rect(xa, g.y - 1.5, sub, 3.0, colour);
-                electrons(
-                    &mut c,
-                    xa + sub / 2.0 + shift[gi],
-                    g.y,
-                    lev.occupation,
-                    room[gi],
-                );
+                electrons(&mut c, xa + sub / 2.0 + shift[gi], g.y, *whole_i, room[gi]);
             }
             let mut text_ = g
                 .members
@@ -357,6 +352,19 @@ fn boxed(c: &mut Canvas, s: &str, x: f32, y: f32, h: HAlign) {
     c.text(s, FONT, x, y, (h, VAlign::Middle), Colour::INK);
 }
 
+/// Whole electrons for each member of a degenerate set: the set's total occupation
+/// rounded to whole electrons, then one up arrow per level before any pairs (Hund's
+/// rule). So the equal fractional occupations of a spherically averaged open shell
+/// (O 2p⁴ as 4/3 in each p) are drawn as the four electrons they add up to.
+fn hund_filling(members: &[Level]) -> Vec<f64> {
+    let g = members.len();
+    let total: f64 = members.iter().map(|l| l.occupation.clamp(0.0, 2.0)).sum();
+    let n = (total.round() as usize).min(2 * g);
+    (0..g)
+        .map(|k| f64::from(u8::from(k < n)) + f64::from(u8::from(k + g < n)))
+        .collect()
+}
+
 /// Up and down arrows for the electrons of one level (a pair, or one up arrow;
 /// fractional occupations rounded to the nearest half-pair).
 fn electrons(c: &mut Canvas, x: f32, y: f32, occ: f64, length: f32) {
@@ -436,4 +444,29 @@ fn gap_arrow(c: &mut Canvas, d: &Diagram, middle: &[Placed], y_px: &dyn Fn(f64) 
         (x - 5.0, HAlign::Right)
     };
     boxed(c, &gap, tx, (ya + yb) / 2.0, at);
+}
+
+#[cfg(test)]
+mod tests {
+    use super::{Level, hund_filling};
+
+    fn set(occ: &[f64]) -> Vec<Level> {
+        let level = |(i, &occupation): (usize, &f64)| Level {
+            energy: -1.0,
+            number: i + 1,
+            occupation,
+        };
+        occ.iter().enumerate().map(level).collect()
+    }
+
+    /// Hund's rule (common practice): singles first, then pairs, the total kept.
+    #[test]
+    fn degenerate_sets_fill_singles_before_pairs() {
+        let third = 4.0 / 3.0;
+        assert_eq!(hund_filling(&set(&[third; 3])), [2.0, 1.0, 1.0]);
+        assert_eq!(hund_filling(&set(&[1.0; 3])), [1.0, 1.0, 1.0]);
+        assert_eq!(hund_filling(&set(&[2.0, 2.0])), [2.0, 2.0]);
+        assert_eq!(hund_filling(&set(&[0.5, 0.5])), [1.0, 0.0]);
+        assert_eq!(hund_filling(&set(&[0.0])), [0.0]);
+    }
 }
