@@ -228,3 +228,52 @@ fn a_narrow_diagram_grows_to_fit() {
     let r = dec.read_info().unwrap();
     assert_eq!(r.info().width, lobecast::plot::levels::MIN_WIDTH_SIDES);
 }
+
+/// `--thumbnails 1,2` on the ion: ψ₊ = φA + φB has one sign everywhere and
+/// ψ₋ = φA − φB a nodal plane between the nuclei (the LCAO definition), so the
+/// bonding picture (the lower one, beside its level) shows only the positive
+/// colour and the antibonding one (upper) both. Colours classified by hue: the
+/// positive phase is orange (red ≫ blue), the negative purple (blue ≫ green).
+#[test]
+fn thumbnails_show_one_phase_bonding_and_two_antibonding() {
+    let dir = tempfile::tempdir().unwrap();
+    let model = example("h2-cation.toml");
+    let m = model.to_str().unwrap();
+    ok(
+        dir.path(),
+        &["levels", m, "--thumbnails", "1,2", "--png", "t.png"],
+    );
+    let mut dec = png::Decoder::new(std::io::BufReader::new(
+        std::fs::File::open(dir.path().join("t.png")).unwrap(),
+    ));
+    dec.set_transformations(png::Transformations::EXPAND);
+    let mut reader = dec.read_info().unwrap();
+    let mut buf = vec![0; reader.output_buffer_size().unwrap()];
+    let frame = reader.next_frame(&mut buf).unwrap();
+    let (width, height) = (frame.width, frame.height);
+    let channels = frame.color_type.samples();
+    // The pictures are a strip added right of the 900 px diagram.
+    assert!(width > 900 + 150, "width {width}");
+    let (mut upper, mut lower) = ([0usize; 2], [0usize; 2]);
+    for (k, p) in buf[..frame.buffer_size()].chunks(channels).enumerate() {
+        let (x, y) = (k as u32 % width, k as u32 / width);
+        if x < 905 {
+            continue;
+        }
+        let [r, g, b] = [p[0], p[1], p[2]].map(i32::from);
+        let class = if r > b + 80 && r > g {
+            0
+        } else if b > g + 40 && b > r + 15 {
+            1
+        } else {
+            continue;
+        };
+        if y < height / 2 {
+            upper[class] += 1;
+        } else {
+            lower[class] += 1;
+        }
+    }
+    assert!(upper[0] > 500 && upper[1] > 500, "antibonding {upper:?}");
+    assert!(lower[0] > 500 && lower[1] == 0, "bonding {lower:?}");
+}

@@ -183,6 +183,19 @@ fn steps(quick: bool) -> Vec<Step> {
         &format!("surface models/water.xyz --method extended-huckel --panels orbital:homo-1,orbital:homo,orbital:lumo --opacity 0.8 --spacing {h} --units bohr --size {w3} --png water-frontier-3d.png"),
     ));
     s.push(step(
+        "level diagram of the ion from two atoms",
+        &[
+            ("h2plus-r2.5-levels.png", "the bonding level below the H 1s level and the antibonding one above, each joined to both atoms with weight ½, with both orbitals in 3-D beside their levels"),
+            ("h2plus-r2.5-weights.csv", "every molecular level, fragment level and weight behind the diagram"),
+        ],
+        "levels models/h2plus-r2.5.toml --fragments 1:2 --thumbnails 1,2 --png h2plus-r2.5-levels.png --csv h2plus-r2.5-weights.csv",
+    ));
+    s.push(step(
+        "ethylene levels from two CH₂ groups",
+        &[("ethylene-levels.png", "ethylene's levels between those of its two CH₂ groups by extended Hückel: π and π* built only from the groups' out-of-plane p orbitals; HOMO and LUMO in 3-D")],
+        &format!("levels {eht} --fragments 1,5,6:2-4 --thumbnails homo,lumo --png ethylene-levels.png"),
+    ));
+    s.push(step(
         "ethylene cube volumes",
         &[("ethylene.cube", "ethylene HOMO, LUMO, valence density and deformation density for a 3-D viewer (bohr)")],
         &format!("volume {eht} --field orbital:homo --field orbital:lumo --field density --field deformation --spacing {h} --units bohr --out ethylene.cube"),

@@ -6,6 +6,7 @@ use std::path::PathBuf;
 use clap::Args;
 
 use super::common::{XyzFlags, load_model_with, parse_count, print_notes, say, shown};
+use super::levels_thumbs as thumbs;
 use lobecast::chem::units::{HARTREE_IN_EV, hartree_to_ev};
 use lobecast::error::{Error, Result};
 use lobecast::output::OutputPlan;
@@ -65,6 +66,10 @@ pub struct LevelsArgs {
         allow_negative_numbers = true
     )]
     pub size: String,
+    /// Small 3-D pictures of these orbitals beside their levels, e.g. homo-1,homo,lumo
+    /// (up to 6; surfaces enclosing 90 % of ∫ψ² dV, as `surface` draws them)
+    #[arg(long, value_name = "ORBITALS")]
+    pub thumbnails: Option<String>,
     #[command(flatten)]
     pub memory: super::common::MemoryFlag,
     #[command(flatten)]
@@ -78,6 +83,7 @@ struct Request {
     around: usize,
     size: u32,
     fragments: Option<FragmentSpec>,
+    thumbnails: Vec<lobecast::field::Field>,
 }
 
 fn read_request(args: &LevelsArgs) -> Result<Request> {
@@ -118,12 +124,22 @@ fn read_request(args: &LevelsArgs) -> Result<Request> {
         ))
         .with_hint("more fragments are written with --csv alone"));
     }
+    let thumbnails = match (&args.thumbnails, &args.png) {
+        (Some(t), Some(_)) => thumbs::parse(t)?,
+        (Some(_), None) => {
+            return Err(Error::input(
+                "--thumbnails are drawn in the figure: give --png FILE",
+            ));
+        }
+        (None, _) => Vec::new(),
+    };
     Ok(Request {
         ev,
         window,
         around,
         size,
         fragments,
+        thumbnails,
     })
 }
 
@@ -179,7 +195,24 @@ pub fn run(args: LevelsArgs) -> Result<()> {
         files.push((slot, csv_text(&set, &frags, &weights).into_bytes()));
     }
     if let Some(slot) = png {
-        let d = diagram(&args, &req, &set, &frags, &weights)?;
+        let mut d = diagram(&args, &req, &set, &frags, &weights)?;
+        let numbers = thumbs::numbers(&req.thumbnails, &set)?;
+        if let Some(n) = numbers
+            .iter()
+            .find(|n| !d.middle.levels.iter().any(|l| l.number == **n))
+        {
+            return Err(Error::input(format!(
+                "--thumbnails: orbital {n} is outside the diagram's energy window"
+            ))
+            .with_hint("widen --window or --levels-around, or choose orbitals near the frontier"));
+        }
+        if !numbers.is_empty() {
+            d.thumbnails = thumbs::pictures(&set, &req.thumbnails, &numbers, args.memory.memory)?;
+            d.footnotes.push(format!(
+                "Pictures: surfaces enclosing {:.0} % of ∫ψ² dV (orange ψ > 0, purple ψ < 0), one view and scale for all.",
+                100.0 * thumbs::ENCLOSE
+            ));
+        }
         meta.title = Some(d.title.clone());
         files.push((slot, draw(&d)?.encode_png(&meta)?));
     }
@@ -391,5 +424,6 @@ fn diagram(
         degeneracy: to_unit(DEGENERATE_EV / HARTREE_IN_EV),
         footnotes: notes,
         width: req.size,
+        thumbnails: Vec::new(),
     })
 }

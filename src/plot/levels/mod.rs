@@ -12,6 +12,9 @@ use crate::render::{text, ticks};
 use marks::{boxed, electrons, gap_arrow, hund_filling, place, spread};
 
 mod marks;
+mod thumbs;
+
+pub use thumbs::Thumbnail;
 
 /// One level to draw: its energy in the diagram's unit, its number (from 1) and the
 /// electrons it holds.
@@ -57,6 +60,8 @@ pub struct Diagram {
     pub degeneracy: f64,
     pub footnotes: Vec<String>,
     pub width: u32,
+    /// Pictures of chosen molecular orbitals, drawn in a strip on the right.
+    pub thumbnails: Vec<Thumbnail>,
 }
 
 /// Height of the plot region as a fraction of the width.
@@ -97,7 +102,8 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
     } else {
         MIN_WIDTH_SIDES
     };
-    let w = d.width.max(min_w) as f32;
+    let strip = thumbs::strip_width(d);
+    let w = d.width.max(min_w) as f32 + strip;
     let note_lines: Vec<String> = d
         .footnotes
         .iter()
@@ -110,7 +116,10 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
         .max()
         .unwrap_or(0);
     let caption_h = caption_rows as f32 * line_height(FONT) * 1.2;
-    let h = ((w * RATIO).max(MIN_PLOT_H) + notes_h + caption_h).ceil();
+    let plot_h = ((w - strip) * RATIO)
+        .max(MIN_PLOT_H)
+        .max(thumbs::needed_height(d) + 2.0 * line_height(FONT));
+    let h = (plot_h + notes_h + caption_h).ceil();
     let mut c = Canvas::new(w as u32, h as u32, Colour::WHITE);
     furniture::title(&mut c, &d.title);
 
@@ -127,7 +136,7 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
         .map(|l| text::measure(l, FONT).width)
         .fold(0.0, f32::max);
     let x0 = MARGIN + line_height(NAME) + 2.0 * GAP + label_w + GAP + TICK;
-    let x1 = w - MARGIN;
+    let x1 = w - MARGIN - strip;
     let top = MARGIN + line_height(TITLE) + 2.0 * line_height(FONT);
     let bottom = h - MARGIN - notes_h - caption_h - GAP;
     // The window's ends sit an arrow's length inside the axis, so the electrons of a
@@ -187,6 +196,9 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
     }
 
     // Bars, electrons and numbers.
+    // Where each middle-column label ends: (level number, x, y), for the leaders
+    // of the pictures.
+    let mut label_ends: Vec<(usize, f32, f32)> = Vec::new();
     for (k, groups) in placed.iter().enumerate() {
         let label_side = if k == 1 { HAlign::Right } else { HAlign::Left };
         let mut label_ys: Vec<f32> = groups.iter().map(|g| g.y).collect();
@@ -255,10 +267,21 @@ pub fn draw(d: &Diagram) -> Result<Canvas> {
                 c.stroke(&pts, THIN, Colour::GREY, None);
             }
             boxed(&mut c, &text_, end + dir * (LEADER + 2.0), ly, label_side);
+            if k == 0 {
+                let x = end + LEADER + 2.0 + text::measure(&text_, FONT).width + 2.0;
+                label_ends.extend(g.members.iter().map(|m| (m.number, x, ly)));
+            }
         }
     }
 
     gap_arrow(&mut c, d, &placed[0], &y_px);
+    // Without fragment columns the way from a label to the strip is clear.
+    let starts = if d.sides.is_empty() {
+        &label_ends[..]
+    } else {
+        &[]
+    };
+    thumbs::draw(&mut c, d, x1 + 2.0 * GAP, (top, bottom), &y_px, starts);
 
     // Captions under the columns.
     for (col, &cx) in columns.iter().zip(&centres) {
