@@ -1,12 +1,12 @@
 //! `levels --thumbnails`: small 3-D pictures of chosen orbitals for the diagram,
 //! made with the same sampling, extraction and rasteriser as `lobecast surface`.
 
-use super::surface_figure::phase_rgb;
+use super::surface_figure::scenes;
 use lobecast::error::{Error, Result};
 use lobecast::field::Field;
 use lobecast::grid::{GridBox, Resolution};
 use lobecast::plot::levels::Thumbnail;
-use lobecast::render::scene::{Painted, Scene, View, ViewSpec, ball_and_stick, frame_all, render};
+use lobecast::render::scene::{View, ViewSpec, frame_all, render};
 use lobecast::solve::OrbitalSet;
 use lobecast::source::Source;
 use lobecast::source::surfaces::{Isovalue, Timings, surfaces_of};
@@ -86,23 +86,7 @@ pub fn pictures(
         perspective: false,
     };
     let orientation = view.orientation(molecule)?;
-    let (balls, sticks) = ball_and_stick(molecule);
-    let scenes: Vec<Scene> = found
-        .iter()
-        .map(|f| Scene {
-            surfaces: f
-                .surfaces
-                .iter()
-                .map(|s| Painted {
-                    mesh: &s.mesh,
-                    rgb: phase_rgb(s.phase),
-                    opacity: 1.0,
-                })
-                .collect(),
-            balls: balls.clone(),
-            sticks: sticks.clone(),
-        })
-        .collect();
+    let scenes = scenes(&found, molecule, 1.0);
     let camera = frame_all(&scenes, &orientation, false, 1.0);
     Ok(scenes
         .iter()

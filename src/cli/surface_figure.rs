@@ -43,6 +43,32 @@ pub fn phase_rgb(phase: Phase) -> [u8; 3] {
     [c.r, c.g, c.b]
 }
 
+/// One scene per field: its surfaces in the phase colours at `opacity`, with the
+/// ball-and-stick molecule.
+pub fn scenes<'a>(
+    found: &'a [FieldSurfaces],
+    molecule: &lobecast::chem::Molecule,
+    opacity: f64,
+) -> Vec<Scene<'a>> {
+    let (balls, sticks) = ball_and_stick(molecule);
+    found
+        .iter()
+        .map(|f| Scene {
+            surfaces: f
+                .surfaces
+                .iter()
+                .map(|s| Painted {
+                    mesh: &s.mesh,
+                    rgb: phase_rgb(s.phase),
+                    opacity,
+                })
+                .collect(),
+            balls: balls.clone(),
+            sticks: sticks.clone(),
+        })
+        .collect()
+}
+
 pub fn draw(
     args: &SurfaceArgs,
     request: &Request,
@@ -85,23 +111,7 @@ fn picture(
     grid: &GridBox,
     mut meta: PngMeta,
 ) -> Result<Vec<u8>> {
-    let (balls, sticks) = ball_and_stick(source.molecule());
-    let scenes: Vec<Scene> = found
-        .iter()
-        .map(|f| Scene {
-            surfaces: f
-                .surfaces
-                .iter()
-                .map(|s| Painted {
-                    mesh: &s.mesh,
-                    rgb: phase_rgb(s.phase),
-                    opacity: args.opacity,
-                })
-                .collect(),
-            balls: balls.clone(),
-            sticks: sticks.clone(),
-        })
-        .collect();
+    let scenes = scenes(found, source.molecule(), args.opacity);
     let furniture = furniture(args, request, source, found, grid);
     let (w, h) = request.size;
     let l = layout(w, h, found.len(), &furniture);
