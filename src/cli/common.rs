@@ -145,6 +145,15 @@ impl FigureFlags {
     }
 }
 
+/// The figure format `--png FILE` asks for, from FILE's extension (`.png`, `.svg`;
+/// `-` is PNG on standard output), checked before any work is done.
+pub fn figure_format(path: Option<&Path>) -> Result<lobecast::render::FigureFormat> {
+    match path {
+        Some(p) => lobecast::render::FigureFormat::from_path(p).map_err(|e| e.context("--png")),
+        None => Ok(lobecast::render::FigureFormat::Png),
+    }
+}
+
 /// The command line as typed (arguments with spaces quoted), for provenance.
 pub fn command_line() -> String {
     std::env::args_os()

@@ -1,11 +1,15 @@
 //! A pixel canvas (tiny-skia underneath: anti-aliased strokes, dashes and fills)
-//! with text from the embedded font; `io::png` encodes it at the end.
+//! with text from the embedded font; `io::png` encodes it at the end. Every public
+//! drawing method also records itself in a display list (`render::record`), from
+//! which `render::svg` writes the same figure as vectors: a new drawing method must
+//! both draw its pixels and push its `Op` (see DEVELOPERS.md).
 
 use tiny_skia::{
-    FillRule, LineCap, LineJoin, Paint, PathBuilder, Pixmap, PremultipliedColorU8, Rect, Stroke,
-    StrokeDash, Transform,
+    FillRule, LineCap, LineJoin, Mask, Paint, PathBuilder, Pixmap, PremultipliedColorU8, Rect,
+    Stroke, StrokeDash, Transform,
 };
 
+use super::record::{Dirty, Op};
 use super::text;
 
 /// A straight (not premultiplied) sRGB colour with alpha.
@@ -53,7 +57,11 @@ pub enum VAlign {
 }
 
 pub struct Canvas {
-    pub pixmap: Pixmap,
+    pixmap: Pixmap,
+    /// What was drawn, in order, for vector output.
+    ops: Vec<Op>,
+    /// Pixels blended one at a time since the last recorded operation.
+    dirty: Option<Dirty>,
 }
 
 fn paint(c: Colour) -> Paint<'static> {
@@ -72,7 +80,54 @@ impl Canvas {
             background.b,
             background.a,
         ));
-        Canvas { pixmap }
+        let mut c = Canvas {
+            pixmap,
+            ops: Vec::new(),
+            dirty: None,
+        };
+        if background.a > 0 {
+            c.ops.push(Op::Rect {
+                x: 0.0,
+                y: 0.0,
+                w: c.width() as f32,
+                h: c.height() as f32,
+                fill: background,
+            });
+        }
+        c
+    }
+
+    /// The recorded drawing operations, in order; a run of single-pixel blends not yet
+    /// followed by another operation is in `pending`.
+    pub fn ops(&self) -> &[Op] {
+        &self.ops
+    }
+
+    /// The pixels blended one at a time since the last recorded operation, as the
+    /// canvas's own pixels over their bounding box (what lies under them included).
+    pub fn pending(&self) -> Option<Op> {
+        self.dirty.map(|d| self.crop(d))
+    }
+
+    fn crop(&self, d: Dirty) -> Op {
+        let image = image::RgbaImage::from_fn(d.x1 - d.x0, d.y1 - d.y0, |x, y| {
+            let c = self.pixel(d.x0 + x, d.y0 + y);
+            image::Rgba([c.r, c.g, c.b, c.a])
+        });
+        Op::Image {
+            x: d.x0 as i32,
+            y: d.y0 as i32,
+            image,
+        }
+    }
+
+    /// Appends `op` after any pending pixel run, keeping the list in drawing order.
+    fn record(&mut self, op: Op) {
+        if let Some(run) = self.pending() {
+            self.ops.push(run);
+            self.dirty = None;
+        }
+        self.ops.push(op);
     }
 
     pub fn width(&self) -> u32 {
@@ -97,6 +152,18 @@ impl Canvas {
 
     /// Copies opaque pixels into the rectangle at (x0, y0), row-major, `w` wide.
     pub fn put_pixels(&mut self, x0: u32, y0: u32, w: u32, pixels: &[[u8; 3]]) {
+        let w = w.max(1);
+        let rows = pixels.len().div_ceil(w as usize) as u32;
+        let image =
+            image::RgbaImage::from_fn(w, rows, |x, y| match pixels.get((y * w + x) as usize) {
+                Some(p) => image::Rgba([p[0], p[1], p[2], 255]),
+                None => image::Rgba([0, 0, 0, 0]),
+            });
+        self.record(Op::Image {
+            x: x0 as i32,
+            y: y0 as i32,
+            image,
+        });
         let width = self.width();
         let height = self.height();
         let data = self.pixmap.pixels_mut();
@@ -111,6 +178,13 @@ impl Canvas {
 
     pub fn fill_rect(&mut self, x: f32, y: f32, w: f32, h: f32, c: Colour) {
         if let Some(r) = Rect::from_xywh(x, y, w, h) {
+            self.record(Op::Rect {
+                x,
+                y,
+                w,
+                h,
+                fill: c,
+            });
             self.pixmap
                 .fill_rect(r, &paint(c), Transform::identity(), None);
         }
@@ -121,18 +195,27 @@ impl Canvas {
         self.stroke_clipped(points, width, c, dash, None);
     }
 
-    /// `stroke`, drawn only where `mask` lets it (a chart's plot area).
+    /// `stroke`, drawn only inside the rectangle `clip` = (x, y, w, h) (a chart's
+    /// plot area), which covers whole pixels or none.
     pub fn stroke_clipped(
         &mut self,
         points: &[(f32, f32)],
         width: f32,
         c: Colour,
         dash: Option<&[f32]>,
-        mask: Option<&tiny_skia::Mask>,
+        clip: Option<[f32; 4]>,
     ) {
         if points.len() < 2 {
             return;
         }
+        self.record(Op::Line {
+            points: points.to_vec(),
+            width,
+            colour: c,
+            dash: dash.map(|d| d.to_vec()),
+            clip,
+        });
+        let mask = clip.and_then(|r| clip_mask(self.width(), self.height(), r));
         let mut pb = PathBuilder::new();
         pb.move_to(points[0].0, points[0].1);
         for p in &points[1..] {
@@ -146,8 +229,13 @@ impl Canvas {
             dash: dash.and_then(|d| StrokeDash::new(d.to_vec(), 0.0)),
             ..Stroke::default()
         };
-        self.pixmap
-            .stroke_path(&path, &paint(c), &stroke, Transform::identity(), mask);
+        self.pixmap.stroke_path(
+            &path,
+            &paint(c),
+            &stroke,
+            Transform::identity(),
+            mask.as_ref(),
+        );
     }
 
     pub fn stroke_rect(&mut self, x: f32, y: f32, w: f32, h: f32, width: f32, c: Colour) {
@@ -160,6 +248,14 @@ impl Canvas {
         let Some(path) = PathBuilder::from_circle(cx, cy, r) else {
             return;
         };
+        self.record(Op::Circle {
+            cx,
+            cy,
+            r,
+            fill,
+            line,
+            width: lw,
+        });
         self.pixmap.fill_path(
             &path,
             &paint(fill),
@@ -179,9 +275,17 @@ impl Canvas {
 
     /// Blends colour `c` with coverage `cover` (0–1) into one pixel.
     pub fn blend(&mut self, x: i32, y: i32, c: Colour, cover: f32) {
+        if self.blend_pixel(x, y, c, cover) {
+            self.dirty = Some(Dirty::grow(self.dirty, x as u32, y as u32));
+        }
+    }
+
+    /// `blend` without recording (for drawing whose operation is recorded whole);
+    /// false when the pixel is off the canvas or not covered.
+    fn blend_pixel(&mut self, x: i32, y: i32, c: Colour, cover: f32) -> bool {
         let (w, h) = (self.width() as i32, self.height() as i32);
         if x < 0 || y < 0 || x >= w || y >= h || cover <= 0.0 {
-            return;
+            return false;
         }
         let a = (cover.min(1.0) * c.a as f32 / 255.0).clamp(0.0, 1.0);
         let idx = (y * w + x) as usize;
@@ -194,16 +298,22 @@ impl Canvas {
         let b = mix(c.b, dst.blue()).min(out_a);
         self.pixmap.pixels_mut()[idx] =
             PremultipliedColorU8::from_rgba(r, g, b, out_a).expect("valid premultiplied colour");
+        true
     }
 
     /// Lays a straight-alpha raster over the canvas with its top-left corner at
     /// (x0, y0), "over" compositing; what falls outside the canvas is dropped.
     pub fn paste(&mut self, x0: i32, y0: i32, img: &image::RgbaImage) {
+        self.record(Op::Image {
+            x: x0,
+            y: y0,
+            image: img.clone(),
+        });
         for (x, y, p) in img.enumerate_pixels() {
             let [r, g, b, a] = p.0;
             if a > 0 {
                 let c = Colour { r, g, b, a };
-                self.blend(x0 + x as i32, y0 + y as i32, c, 1.0);
+                self.blend_pixel(x0 + x as i32, y0 + y as i32, c, 1.0);
             }
         }
     }
@@ -213,10 +323,11 @@ impl Canvas {
         let e = text::measure(s, size);
         let (dx, dy) = offsets(&e, align);
         let (ox, oy) = ((x + dx).round() as i32, (y + dy).round() as i32);
+        self.record_text(s, size, [1.0, 0.0, 0.0, 1.0, ox as f32, oy as f32], c);
         let mut cover = Vec::new();
         text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
         for (px, py, v) in cover {
-            self.blend(ox + px, oy + py, c, v);
+            self.blend_pixel(ox + px, oy + py, c, v);
         }
     }
 
@@ -233,12 +344,17 @@ impl Canvas {
     ) {
         let e = text::measure(s, size);
         let (dx, dy) = offsets(&e, align);
+        // The pixel (px, py) of the text frame lands on the canvas pixel
+        // (round(x + dy) + py, round(y − dx) − px): as a mapping of areas, the text
+        // point (u, w) goes to (round(x + dy) + w, round(y − dx) + 1 − u).
+        let (ex, fy) = ((x + dy).round(), (y - dx).round() + 1.0);
+        self.record_text(s, size, [0.0, -1.0, 1.0, 0.0, ex, fy], c);
         let mut cover = Vec::new();
         text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
         for (px, py, v) in cover {
             // Text frame (u right, w down) → canvas: u runs up, w runs right.
             let (u, w) = (px as f32 + dx, py as f32 + dy);
-            self.blend((x + w).round() as i32, (y - u).round() as i32, c, v);
+            self.blend_pixel((x + w).round() as i32, (y - u).round() as i32, c, v);
         }
     }
 
@@ -254,12 +370,25 @@ impl Canvas {
     ) {
         let e = text::measure(s, size);
         let (dx, dy) = offsets(&e, align);
+        // As in `text_up`, turned the other way: (u, w) → (round(x − dy) + 1 − w,
+        // round(y + dx) + u).
+        let (ex, fy) = ((x - dy).round() + 1.0, (y + dx).round());
+        self.record_text(s, size, [0.0, 1.0, -1.0, 0.0, ex, fy], c);
         let mut cover = Vec::new();
         text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
         for (px, py, v) in cover {
             let (u, w) = (px as f32 + dx, py as f32 + dy);
-            self.blend((x - w).round() as i32, (y + u).round() as i32, c, v);
+            self.blend_pixel((x - w).round() as i32, (y + u).round() as i32, c, v);
         }
+    }
+
+    fn record_text(&mut self, s: &str, size: f32, matrix: [f32; 6], colour: Colour) {
+        self.record(Op::Text {
+            text: s.to_string(),
+            size,
+            matrix,
+            colour,
+        });
     }
 
     /// The canvas shrunk by an integer `factor`, each pixel the mean of a block:
@@ -294,7 +423,15 @@ impl Canvas {
                 .expect("valid premultiplied colour");
             }
         }
-        Canvas { pixmap: out }
+        let mut c = Canvas {
+            pixmap: out,
+            ops: Vec::new(),
+            dirty: None,
+        };
+        // What was drawn large is, shrunk, pixels only.
+        let image = c.to_image();
+        c.ops.push(Op::Image { x: 0, y: 0, image });
+        c
     }
 
     /// The pixels as a straight-alpha raster (tiny-skia keeps them premultiplied).
@@ -312,6 +449,14 @@ impl Canvas {
     pub fn encode_png(&self, meta: &crate::io::png::PngMeta) -> crate::Result<Vec<u8>> {
         crate::io::png::encode(&self.to_image(), meta)
     }
+}
+
+/// A mask letting drawing through inside the rectangle (x, y, w, h) only.
+fn clip_mask(width: u32, height: u32, [x, y, w, h]: [f32; 4]) -> Option<Mask> {
+    let mut mask = Mask::new(width, height)?;
+    let path = PathBuilder::from_rect(Rect::from_xywh(x, y, w, h)?);
+    mask.fill_path(&path, FillRule::Winding, false, Transform::identity());
+    Some(mask)
 }
 
 /// Offsets from the anchor to the left end of the baseline.
