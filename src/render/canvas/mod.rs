@@ -10,7 +10,11 @@ use tiny_skia::{
 };
 
 use super::record::{Dirty, Op};
-use super::text;
+
+mod lettering;
+mod shrink;
+
+pub use lettering::offsets;
 
 /// A straight (not premultiplied) sRGB colour with alpha.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -318,133 +322,6 @@ impl Canvas {
         }
     }
 
-    /// Draws one line of markup at `size` px anchored at (x, y).
-    pub fn text(&mut self, s: &str, size: f32, x: f32, y: f32, align: (HAlign, VAlign), c: Colour) {
-        let e = text::measure(s, size);
-        let (dx, dy) = offsets(&e, align);
-        let (ox, oy) = ((x + dx).round() as i32, (y + dy).round() as i32);
-        self.record_text(s, size, [1.0, 0.0, 0.0, 1.0, ox as f32, oy as f32], c);
-        let mut cover = Vec::new();
-        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
-        for (px, py, v) in cover {
-            self.blend_pixel(ox + px, oy + py, c, v);
-        }
-    }
-
-    /// Draws text turned 90° anticlockwise (reading upwards), for vertical axis labels;
-    /// `align` refers to the turned text's own frame.
-    pub fn text_up(
-        &mut self,
-        s: &str,
-        size: f32,
-        x: f32,
-        y: f32,
-        align: (HAlign, VAlign),
-        c: Colour,
-    ) {
-        let e = text::measure(s, size);
-        let (dx, dy) = offsets(&e, align);
-        // The pixel (px, py) of the text frame lands on the canvas pixel
-        // (round(x + dy) + py, round(y − dx) − px): as a mapping of areas, the text
-        // point (u, w) goes to (round(x + dy) + w, round(y − dx) + 1 − u).
-        let (ex, fy) = ((x + dy).round(), (y - dx).round() + 1.0);
-        self.record_text(s, size, [0.0, -1.0, 1.0, 0.0, ex, fy], c);
-        let mut cover = Vec::new();
-        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
-        for (px, py, v) in cover {
-            // Text frame (u right, w down) → canvas: u runs up, w runs right.
-            let (u, w) = (px as f32 + dx, py as f32 + dy);
-            self.blend_pixel((x + w).round() as i32, (y - u).round() as i32, c, v);
-        }
-    }
-
-    /// Draws text turned 90° clockwise (reading downwards).
-    pub fn text_down(
-        &mut self,
-        s: &str,
-        size: f32,
-        x: f32,
-        y: f32,
-        align: (HAlign, VAlign),
-        c: Colour,
-    ) {
-        let e = text::measure(s, size);
-        let (dx, dy) = offsets(&e, align);
-        // As in `text_up`, turned the other way: (u, w) → (round(x − dy) + 1 − w,
-        // round(y + dx) + u).
-        let (ex, fy) = ((x - dy).round() + 1.0, (y + dx).round());
-        self.record_text(s, size, [0.0, 1.0, -1.0, 0.0, ex, fy], c);
-        let mut cover = Vec::new();
-        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
-        for (px, py, v) in cover {
-            let (u, w) = (px as f32 + dx, py as f32 + dy);
-            self.blend_pixel((x - w).round() as i32, (y + u).round() as i32, c, v);
-        }
-    }
-
-    fn record_text(&mut self, s: &str, size: f32, matrix: [f32; 6], colour: Colour) {
-        self.record(Op::Text {
-            text: s.to_string(),
-            size,
-            matrix,
-            colour,
-        });
-    }
-
-    /// The canvas shrunk by an integer `factor`, each pixel the mean of a block:
-    /// drawing large and shrinking smooths what was placed on whole pixels.
-    pub fn downsample(&self, factor: u32) -> Canvas {
-        let f = factor.max(1);
-        let (w, h) = (self.width() / f, self.height() / f);
-        let mut out = Pixmap::new(w.max(1), h.max(1)).expect("non-zero canvas");
-        let src = self.pixmap.pixels();
-        let sw = self.width() as usize;
-        let n = f * f;
-        for y in 0..h as usize {
-            for x in 0..w as usize {
-                let mut acc = [0u32; 4];
-                for dy in 0..f as usize {
-                    for dx in 0..f as usize {
-                        let p = src[(y * f as usize + dy) * sw + x * f as usize + dx];
-                        acc[0] += p.red() as u32;
-                        acc[1] += p.green() as u32;
-                        acc[2] += p.blue() as u32;
-                        acc[3] += p.alpha() as u32;
-                    }
-                }
-                let m = |v: u32| ((v + n / 2) / n) as u8;
-                let a = m(acc[3]);
-                out.pixels_mut()[y * w as usize + x] = PremultipliedColorU8::from_rgba(
-                    m(acc[0]).min(a),
-                    m(acc[1]).min(a),
-                    m(acc[2]).min(a),
-                    a,
-                )
-                .expect("valid premultiplied colour");
-            }
-        }
-        let mut c = Canvas {
-            pixmap: out,
-            ops: Vec::new(),
-            dirty: None,
-        };
-        // What was drawn large is, shrunk, pixels only.
-        let image = c.to_image();
-        c.ops.push(Op::Image { x: 0, y: 0, image });
-        c
-    }
-
-    /// The pixels as a straight-alpha raster (tiny-skia keeps them premultiplied).
-    pub fn to_image(&self) -> image::RgbaImage {
-        let (w, h) = (self.pixmap.width(), self.pixmap.height());
-        let mut raw = Vec::with_capacity(w as usize * h as usize * 4);
-        for p in self.pixmap.pixels() {
-            let c = p.demultiply();
-            raw.extend_from_slice(&[c.red(), c.green(), c.blue(), c.alpha()]);
-        }
-        image::RgbaImage::from_raw(w, h, raw).expect("the raster has w·h pixels")
-    }
-
     /// The figure as a PNG file (see `io::png`).
     pub fn encode_png(&self, meta: &crate::io::png::PngMeta) -> crate::Result<Vec<u8>> {
         crate::io::png::encode(&self.to_image(), meta)
@@ -457,20 +334,4 @@ fn clip_mask(width: u32, height: u32, [x, y, w, h]: [f32; 4]) -> Option<Mask> {
     let path = PathBuilder::from_rect(Rect::from_xywh(x, y, w, h)?);
     mask.fill_path(&path, FillRule::Winding, false, Transform::identity());
     Some(mask)
-}
-
-/// Offsets from the anchor to the left end of the baseline.
-pub fn offsets(e: &text::Extent, (h, v): (HAlign, VAlign)) -> (f32, f32) {
-    let dx = match h {
-        HAlign::Left => 0.0,
-        HAlign::Centre => -e.width / 2.0,
-        HAlign::Right => -e.width,
-    };
-    let dy = match v {
-        VAlign::Top => e.ascent,
-        VAlign::Middle => (e.ascent - e.descent) / 2.0,
-        VAlign::Baseline => 0.0,
-        VAlign::Bottom => -e.descent,
-    };
-    (dx, dy)
 }
