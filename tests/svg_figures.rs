@@ -191,6 +191,7 @@ fn curve_svg_and_its_companion_match_their_pngs() {
     check_svg(&svg, "curve-integrals", "curve", w, h, &png);
 }
 
+/// On a transparent background, so the embedded scenes carry their own alpha.
 #[test]
 fn surface_svg_matches_its_png_with_the_scene_embedded() {
     let dir = tempfile::tempdir().unwrap();
@@ -209,10 +210,14 @@ fn surface_svg_matches_its_png_with_the_scene_embedded() {
             "bohr",
             "--size",
             "640",
+            "--background",
+            "transparent",
         ],
     );
     assert!(
         images(&svg) >= 2,
         "the rendered scenes are embedded rasters"
     );
+    // A transparent figure has no background rectangle: the scenes' own alpha shows.
+    assert!(!svg.contains("<rect x=\"0\" y=\"0\""));
 }
