@@ -125,15 +125,24 @@ pub fn outline_path(text: &str, size: f32) -> String {
         };
         let k = f.as_scaled(PxScale::from(p.size)).scale_factor();
         let at = |q: &ab_glyph::Point| (q.x * k.horizontal + p.x, -q.y * k.vertical + p.dy);
-        let mut pen: Option<(f32, f32)> = None;
+        let (mut pen, mut first): (Option<(f32, f32)>, (f32, f32)) = (None, (0.0, 0.0));
         for curve in &outline.curves {
             let (start, rest) = match curve {
                 OutlineCurve::Line(a, b) => (at(a), vec![at(b)]),
                 OutlineCurve::Quad(a, b, c) => (at(a), vec![at(b), at(c)]),
                 OutlineCurve::Cubic(a, b, c, e) => (at(a), vec![at(b), at(c), at(e)]),
             };
+            if rest.len() == 1 && rest[0] == start {
+                continue; // a zero-length closing line fills nothing
+            }
             if pen != Some(start) {
                 let _ = write!(d, "M{} {}", num(start.0), num(start.1));
+                first = start;
+            }
+            if rest.len() == 1 && rest[0] == first {
+                d.push('Z'); // the line back to the contour's start
+                pen = Some(first);
+                continue;
             }
             let verb = ["L", "Q", "C"][rest.len() - 1];
             d.push_str(verb);
