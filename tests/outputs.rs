@@ -41,7 +41,7 @@ fn a_missing_folder_fails_before_any_file_is_written() {
 #[test]
 fn two_outputs_with_one_name_are_refused() {
     let dir = setup();
-    let out = curve(dir.path(), &["--csv", "c.csv", "--png", "./c.csv"]);
+    let out = curve(dir.path(), &["--csv", "c.png", "--png", "./c.png"]);
     assert_error_first(&out, "same file");
     assert_eq!(names(dir.path()), ["h2.toml"]);
 }

@@ -120,8 +120,8 @@ pub fn shown(x: f64) -> String {
 /// `--dpi`, for every command that writes a PNG figure.
 #[derive(Debug, Args, Clone)]
 pub struct FigureFlags {
-    /// Physical resolution recorded in the PNG file (dots per inch, 10 to 10000):
-    /// the size at which a report's layout program places the figure
+    /// Physical resolution recorded in the figure (dots per inch, 10 to 10000; an SVG
+    /// states the matching size): the size at which a report's layout program places it
     #[arg(long, value_name = "DPI", default_value_t = lobecast::io::png::DEFAULT_DPI, allow_negative_numbers = true)]
     pub dpi: f64,
 }
@@ -142,6 +142,15 @@ impl FigureFlags {
             title,
             command: Some(command_line()),
         })
+    }
+}
+
+/// The figure format `--png FILE` asks for, from FILE's extension (`.png`, `.svg`;
+/// `-` is PNG on standard output), checked before any work is done.
+pub fn figure_format(path: Option<&Path>) -> Result<lobecast::render::FigureFormat> {
+    match path {
+        Some(p) => lobecast::render::FigureFormat::from_path(p).map_err(|e| e.context("--png")),
+        None => Ok(lobecast::render::FigureFormat::Png),
     }
 }
 

@@ -53,8 +53,8 @@ pub struct CurveArgs {
     /// density at the bond midpoint; with --png also FILE-buildup.png
     #[arg(long)]
     pub buildup: bool,
-    /// Draw the energies as a PNG chart (and, for the slater-1s closed forms, S, J and K
-    /// beside it in FILE-integrals.png)
+    /// Draw the energies as a chart, FILE.png or FILE.svg (and, for the slater-1s
+    /// closed forms, S, J and K beside it in FILE-integrals.png or .svg)
     #[arg(long, value_name = "FILE")]
     pub png: Option<PathBuf>,
     #[command(flatten)]
@@ -104,6 +104,7 @@ pub const MAX_STATES: u64 = 100;
 
 pub fn run(args: CurveArgs) -> Result<()> {
     let meta = args.figure.meta(None)?;
+    let format = super::common::figure_format(args.png.as_deref())?;
     let states = match &args.states {
         Some(k) => super::common::parse_count("--states", k, 1, MAX_STATES)? as usize,
         None => 2,
@@ -213,16 +214,19 @@ pub fn run(args: CurveArgs) -> Result<()> {
             .ok_or_else(|| Error::input("--png needs at least two states (--states 2)"))?;
         files.push((
             slot,
-            lobecast::plot::curve::energies(data)?.encode_png(&meta)?,
+            lobecast::plot::curve::energies(data)?.encode(format, &meta)?,
         ));
         if let Some(slot) = integrals_png {
             files.push((
                 slot,
-                lobecast::plot::curve::integrals(data)?.encode_png(&meta)?,
+                lobecast::plot::curve::integrals(data)?.encode(format, &meta)?,
             ));
         }
         if let (Some(slot), Some(b)) = (buildup_png, &buildups) {
-            files.push((slot, charts::buildup(&model, &rs, b)?.encode_png(&meta)?));
+            files.push((
+                slot,
+                charts::buildup(&model, &rs, b)?.encode(format, &meta)?,
+            ));
         }
     }
     let mut out = plan.open()?;

@@ -48,7 +48,7 @@ pub struct LevelsArgs {
         allow_negative_numbers = true
     )]
     pub levels_around: String,
-    /// Write the diagram as a PNG figure
+    /// Write the diagram as a figure: FILE.png or FILE.svg
     #[arg(long, value_name = "FILE")]
     pub png: Option<PathBuf>,
     /// Write every level (and with --fragments every weight) as CSV
@@ -161,6 +161,7 @@ fn parse_window(text: &str) -> Result<(f64, f64)> {
 
 pub fn run(args: LevelsArgs) -> Result<()> {
     let mut meta = args.figure.meta(None)?;
+    let format = super::common::figure_format(args.png.as_deref())?;
     let req = read_request(&args)?;
     let model = load_model_with(&args.source, &args.xyz)?;
     let groups = match &req.fragments {
@@ -214,7 +215,7 @@ pub fn run(args: LevelsArgs) -> Result<()> {
             ));
         }
         meta.title = Some(d.title.clone());
-        files.push((slot, draw(&d)?.encode_png(&meta)?));
+        files.push((slot, draw(&d)?.encode(format, &meta)?));
     }
     let mut out = plan.open()?;
     for (slot, bytes) in &files {

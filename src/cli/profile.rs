@@ -63,7 +63,7 @@ pub struct ProfileArgs {
     /// Write the samples as CSV
     #[arg(long, value_name = "FILE")]
     pub csv: Option<PathBuf>,
-    /// Draw the profile as a PNG line chart
+    /// Draw the profile as a line chart: FILE.png or FILE.svg
     #[arg(long, value_name = "FILE")]
     pub png: Option<PathBuf>,
     /// Title instead of the automatic one
@@ -86,6 +86,7 @@ pub struct ProfileArgs {
 pub fn run(args: ProfileArgs) -> Result<()> {
     let started = Instant::now();
     args.figure.meta(None)?;
+    super::common::figure_format(args.png.as_deref())?;
     let request = read_request(&args)?;
     let source = Source::load_for(
         &args.source,
@@ -227,7 +228,7 @@ fn sample(args: &ProfileArgs, request: &Request, source: &Source, line: &Line) -
     })
 }
 
-/// Draws the line chart as PNG bytes: one line per field against the distance in Å,
+/// Draws the line chart as PNG or SVG bytes: one line per field against the distance in Å,
 /// with the nuclei on the line marked.
 fn chart_png(
     args: &ProfileArgs,
@@ -274,7 +275,8 @@ fn chart_png(
         width: size,
         background: Colour::WHITE,
     };
-    draw(&chart)?.encode_png(&args.figure.meta(None)?)
+    let format = super::common::figure_format(args.png.as_deref())?;
+    draw(&chart)?.encode(format, &args.figure.meta(None)?)
 }
 
 /// Labels (symbol and number) and distances (Å) of the nuclei that lie on the line,

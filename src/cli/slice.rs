@@ -67,7 +67,7 @@ pub struct SliceArgs {
     /// which of the two axes points up (the other is horizontal)
     #[arg(long, value_parser = super::values::axis())]
     pub up: Option<Axis>,
-    /// Output PNG file
+    /// Output figure: FILE.png (raster) or FILE.svg (vectors, maps embedded as PNG)
     #[arg(long, value_name = "FILE")]
     pub png: PathBuf,
     /// Contour levels per sign, 0 to 50, evenly spaced between 0 and the largest
@@ -133,6 +133,7 @@ pub struct SliceArgs {
 pub fn run(args: SliceArgs) -> Result<()> {
     let started = Instant::now();
     let meta = args.figure.meta(None)?;
+    let format = super::common::figure_format(Some(&args.png))?;
     let request = read_request(&args)?;
     let source = Source::load_for(
         &args.source,
@@ -157,7 +158,7 @@ pub fn run(args: SliceArgs) -> Result<()> {
     let drawn = sample_and_draw(&figure, &style, &sampler, request.fields.len())?;
     refuse_empty(&drawn.rendered, &request.fields, &figure, &largest)?;
     let mut out = plan.open()?;
-    out.put(png_slot, &drawn.rendered.canvas.encode_png(&meta)?)?;
+    out.put(png_slot, &drawn.rendered.canvas.encode(format, &meta)?)?;
     let written = out.commit()?.remove(0);
     report(&written, &drawn, &scene.infos, started)?;
     print_notes(&source.notes())?;

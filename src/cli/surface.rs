@@ -57,7 +57,7 @@ pub struct SurfaceArgs {
         allow_negative_numbers = true
     )]
     pub enclose: f64,
-    /// Output picture (PNG)
+    /// Output picture: FILE.png, or FILE.svg (captions as vectors, scenes embedded as PNG)
     #[arg(long, value_name = "FILE", required_unless_present = "mesh")]
     pub png: Option<PathBuf>,
     /// Output mesh, by extension: .glb (glTF 2.0 binary), .ply or .obj; lengths in bohr
@@ -114,6 +114,7 @@ pub struct Request {
 pub fn run(args: SurfaceArgs) -> Result<()> {
     let started = Instant::now();
     let meta = args.figure.meta(args.title.clone())?;
+    super::common::figure_format(args.png.as_deref())?;
     let request = read_request(&args)?;
     let source = Source::load_for(
         &args.source,

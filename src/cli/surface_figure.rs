@@ -145,7 +145,7 @@ fn picture(
     if meta.title.is_none() && !furniture.title.is_empty() {
         meta.title = Some(furniture.title.clone());
     }
-    canvas.encode_png(&meta)
+    canvas.encode(super::common::figure_format(args.png.as_deref())?, &meta)
 }
 
 fn furniture(

@@ -2,8 +2,6 @@
 //! twin y axis linked linearly to the left one, series, markers and notes — and
 //! `draw`, which lays it out (`frame`) and paints it on the shared canvas.
 
-use tiny_skia::{FillRule, Mask, PathBuilder, Rect};
-
 use super::frame::{Frame, layout, marker_label_boxes};
 use super::size::*;
 use super::{axes, furniture};
@@ -127,7 +125,7 @@ pub fn draw(chart: &Chart) -> Drawn {
     let f = l.frame;
     let mut canvas = Canvas::new(l.width, l.height, chart.background);
     axes::grid(&mut canvas, &l);
-    let mask = frame_mask(&canvas, &f);
+    let mask = frame_mask(&f);
     for v in &chart.verticals {
         let x = f.x_px(v.x).floor() + 0.5;
         let pts = [(x, f.top), (x, f.bottom())];
@@ -161,7 +159,7 @@ pub fn draw(chart: &Chart) -> Drawn {
 }
 
 /// A series as polylines, one per run of finite values, and its dots.
-fn series(c: &mut Canvas, f: &Frame, s: &Series, mask: &Option<Mask>) {
+fn series(c: &mut Canvas, f: &Frame, s: &Series, mask: &Option<[f32; 4]>) {
     let to_px = |x: f64, y: f64| {
         let y = if s.on_twin { f.from_twin(y) } else { y };
         f.px(x, y)
@@ -203,17 +201,8 @@ fn point(c: &mut Canvas, f: &Frame, p: &Point) {
 
 /// A mask that lets drawing through inside the frame only, so lines leaving the
 /// chart's range end at the frame.
-fn frame_mask(c: &Canvas, f: &Frame) -> Option<Mask> {
-    let mut mask = Mask::new(c.width(), c.height())?;
-    let rect = Rect::from_xywh(f.left, f.top, f.width, f.height)?;
-    let path = PathBuilder::from_rect(rect);
-    mask.fill_path(
-        &path,
-        FillRule::Winding,
-        false,
-        tiny_skia::Transform::identity(),
-    );
-    Some(mask)
+fn frame_mask(f: &Frame) -> Option<[f32; 4]> {
+    Some([f.left, f.top, f.width, f.height])
 }
 
 fn stroke_masked(
@@ -222,13 +211,7 @@ fn stroke_masked(
     width: f32,
     colour: Colour,
     dash: Option<[f32; 2]>,
-    mask: &Option<Mask>,
+    mask: &Option<[f32; 4]>,
 ) {
-    c.stroke_clipped(
-        pts,
-        width,
-        colour,
-        dash.as_ref().map(|d| &d[..]),
-        mask.as_ref(),
-    );
+    c.stroke_clipped(pts, width, colour, dash.as_ref().map(|d| &d[..]), *mask);
 }

@@ -4,7 +4,7 @@
 
 use std::sync::OnceLock;
 
-use ab_glyph::{Font, FontRef, PxScale, ScaleFont, point};
+use ab_glyph::{Font, FontRef, OutlineCurve, PxScale, ScaleFont, point};
 
 static FONT_BYTES: &[u8] = include_bytes!("../../assets/fonts/DejaVuSans.ttf");
 
@@ -106,6 +106,64 @@ pub fn rasterize(text: &str, size: f32, mut cover: impl FnMut(i32, i32, f32)) {
             outlined
                 .draw(|gx, gy, c| cover(b.min.x as i32 + gx as i32, b.min.y as i32 + gy as i32, c));
         }
+    }
+}
+
+/// The same glyphs as `rasterize`, as SVG path data (nonzero fill) in the same frame:
+/// (0, 0) the left end of the baseline, y down. Each point goes through the mapping
+/// ab_glyph's own rasterizer applies (`OutlinedGlyph::draw`: font units times the
+/// scale factor, y flipped, plus the glyph's position), so a vector figure's text
+/// covers exactly the pixels the raster text fills.
+pub fn outline_path(text: &str, size: f32) -> String {
+    use std::fmt::Write;
+    let f = font();
+    let (placed, _) = layout(text, size);
+    let mut d = String::new();
+    for p in placed {
+        let Some(outline) = f.outline(f.glyph_id(p.c)) else {
+            continue;
+        };
+        let k = f.as_scaled(PxScale::from(p.size)).scale_factor();
+        let at = |q: &ab_glyph::Point| (q.x * k.horizontal + p.x, -q.y * k.vertical + p.dy);
+        let (mut pen, mut first): (Option<(f32, f32)>, (f32, f32)) = (None, (0.0, 0.0));
+        for curve in &outline.curves {
+            let (start, rest) = match curve {
+                OutlineCurve::Line(a, b) => (at(a), vec![at(b)]),
+                OutlineCurve::Quad(a, b, c) => (at(a), vec![at(b), at(c)]),
+                OutlineCurve::Cubic(a, b, c, e) => (at(a), vec![at(b), at(c), at(e)]),
+            };
+            if rest.len() == 1 && rest[0] == start {
+                continue; // a zero-length closing line fills nothing
+            }
+            if pen != Some(start) {
+                let _ = write!(d, "M{} {}", num(start.0), num(start.1));
+                first = start;
+            }
+            if rest.len() == 1 && rest[0] == first {
+                d.push('Z'); // the line back to the contour's start
+                pen = Some(first);
+                continue;
+            }
+            let verb = ["L", "Q", "C"][rest.len() - 1];
+            d.push_str(verb);
+            for (i, q) in rest.iter().enumerate() {
+                let sep = if i == 0 { "" } else { " " };
+                let _ = write!(d, "{sep}{} {}", num(q.0), num(q.1));
+            }
+            pen = rest.last().copied();
+        }
+    }
+    d
+}
+
+/// A coordinate with two decimals (a hundredth of a pixel), trailing zeros dropped.
+pub fn num(v: f32) -> String {
+    let s = format!("{v:.2}");
+    let s = s.trim_end_matches('0').trim_end_matches('.');
+    if s == "-0" || s.is_empty() {
+        "0".into()
+    } else {
+        s.into()
     }
 }
 

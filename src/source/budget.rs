@@ -18,8 +18,12 @@ pub const MAX_WORK: f64 = 1e12;
 
 /// Copies of the sampled values alive at the peak.
 const SAMPLE_COPIES: f64 = 2.0;
-/// Bytes per pixel of the picture, times its copies (RGBA canvas, raster, PNG).
-const PICTURE_BYTES_PER_PIXEL: f64 = 4.0 * 3.0;
+/// Bytes per pixel of the picture, times its copies at the peak: the RGBA canvas,
+/// the copy of its maps or panels in the canvas's display list, and the file being
+/// encoded — for PNG the raster and the PNG, for SVG an embedded raster's PNG, its
+/// base64 text (4/3 of it) and the SVG text holding that (4/3 again), counted as if
+/// nothing compressed.
+const PICTURE_BYTES_PER_PIXEL: f64 = 4.0 * 6.0;
 /// Operations per point and field to interpolate a cube (8 corners, 3 weights each).
 const CUBE_OPS: f64 = 30.0;
 
@@ -62,10 +66,10 @@ mod tests {
     use super::*;
 
     /// 1000 × 1000 samples of 2 fields, twice, at 8 bytes: 32 MB; a 1000 × 800
-    /// picture with 3 copies of 4 bytes per pixel: 9.6 MB (arithmetic).
+    /// picture with 6 copies of 4 bytes per pixel: 19.2 MB (arithmetic).
     #[test]
     fn estimates_are_plain_products() {
         assert_eq!(samples_memory(1e6, 2), 3.2e7);
-        assert_eq!(picture_memory(1000.0, 800.0), 9.6e6);
+        assert_eq!(picture_memory(1000.0, 800.0), 1.92e7);
     }
 }

@@ -1,12 +1,20 @@
 //! A pixel canvas (tiny-skia underneath: anti-aliased strokes, dashes and fills)
-//! with text from the embedded font; `io::png` encodes it at the end.
+//! with text from the embedded font; `io::png` encodes it at the end. Every public
+//! drawing method also records itself in a display list (`render::record`), from
+//! which `render::svg` writes the same figure as vectors: a new drawing method must
+//! both draw its pixels and push its `Op` (see DEVELOPERS.md).
 
 use tiny_skia::{
-    FillRule, LineCap, LineJoin, Paint, PathBuilder, Pixmap, PremultipliedColorU8, Rect, Stroke,
-    StrokeDash, Transform,
+    FillRule, LineCap, LineJoin, Mask, Paint, PathBuilder, Pixmap, PremultipliedColorU8, Rect,
+    Stroke, StrokeDash, Transform,
 };
 
-use super::text;
+use super::record::{Dirty, Op};
+
+mod lettering;
+mod shrink;
+
+pub use lettering::offsets;
 
 /// A straight (not premultiplied) sRGB colour with alpha.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -53,7 +61,11 @@ pub enum VAlign {
 }
 
 pub struct Canvas {
-    pub pixmap: Pixmap,
+    pixmap: Pixmap,
+    /// What was drawn, in order, for vector output.
+    ops: Vec<Op>,
+    /// Pixels blended one at a time since the last recorded operation.
+    dirty: Option<Dirty>,
 }
 
 fn paint(c: Colour) -> Paint<'static> {
@@ -72,7 +84,54 @@ impl Canvas {
             background.b,
             background.a,
         ));
-        Canvas { pixmap }
+        let mut c = Canvas {
+            pixmap,
+            ops: Vec::new(),
+            dirty: None,
+        };
+        if background.a > 0 {
+            c.ops.push(Op::Rect {
+                x: 0.0,
+                y: 0.0,
+                w: c.width() as f32,
+                h: c.height() as f32,
+                fill: background,
+            });
+        }
+        c
+    }
+
+    /// The recorded drawing operations, in order; a run of single-pixel blends not yet
+    /// followed by another operation is in `pending`.
+    pub fn ops(&self) -> &[Op] {
+        &self.ops
+    }
+
+    /// The pixels blended one at a time since the last recorded operation, as the
+    /// canvas's own pixels over their bounding box (what lies under them included).
+    pub fn pending(&self) -> Option<Op> {
+        self.dirty.map(|d| self.crop(d))
+    }
+
+    fn crop(&self, d: Dirty) -> Op {
+        let image = image::RgbaImage::from_fn(d.x1 - d.x0, d.y1 - d.y0, |x, y| {
+            let c = self.pixel(d.x0 + x, d.y0 + y);
+            image::Rgba([c.r, c.g, c.b, c.a])
+        });
+        Op::Image {
+            x: d.x0 as i32,
+            y: d.y0 as i32,
+            image,
+        }
+    }
+
+    /// Appends `op` after any pending pixel run, keeping the list in drawing order.
+    fn record(&mut self, op: Op) {
+        if let Some(run) = self.pending() {
+            self.ops.push(run);
+            self.dirty = None;
+        }
+        self.ops.push(op);
     }
 
     pub fn width(&self) -> u32 {
@@ -97,6 +156,18 @@ impl Canvas {
 
     /// Copies opaque pixels into the rectangle at (x0, y0), row-major, `w` wide.
     pub fn put_pixels(&mut self, x0: u32, y0: u32, w: u32, pixels: &[[u8; 3]]) {
+        let w = w.max(1);
+        let rows = pixels.len().div_ceil(w as usize) as u32;
+        let image =
+            image::RgbaImage::from_fn(w, rows, |x, y| match pixels.get((y * w + x) as usize) {
+                Some(p) => image::Rgba([p[0], p[1], p[2], 255]),
+                None => image::Rgba([0, 0, 0, 0]),
+            });
+        self.record(Op::Image {
+            x: x0 as i32,
+            y: y0 as i32,
+            image,
+        });
         let width = self.width();
         let height = self.height();
         let data = self.pixmap.pixels_mut();
@@ -111,6 +182,13 @@ impl Canvas {
 
     pub fn fill_rect(&mut self, x: f32, y: f32, w: f32, h: f32, c: Colour) {
         if let Some(r) = Rect::from_xywh(x, y, w, h) {
+            self.record(Op::Rect {
+                x,
+                y,
+                w,
+                h,
+                fill: c,
+            });
             self.pixmap
                 .fill_rect(r, &paint(c), Transform::identity(), None);
         }
@@ -121,18 +199,27 @@ impl Canvas {
         self.stroke_clipped(points, width, c, dash, None);
     }
 
-    /// `stroke`, drawn only where `mask` lets it (a chart's plot area).
+    /// `stroke`, drawn only inside the rectangle `clip` = (x, y, w, h) (a chart's
+    /// plot area), which covers whole pixels or none.
     pub fn stroke_clipped(
         &mut self,
         points: &[(f32, f32)],
         width: f32,
         c: Colour,
         dash: Option<&[f32]>,
-        mask: Option<&tiny_skia::Mask>,
+        clip: Option<[f32; 4]>,
     ) {
         if points.len() < 2 {
             return;
         }
+        self.record(Op::Line {
+            points: points.to_vec(),
+            width,
+            colour: c,
+            dash: dash.map(|d| d.to_vec()),
+            clip,
+        });
+        let mask = clip.and_then(|r| clip_mask(self.width(), self.height(), r));
         let mut pb = PathBuilder::new();
         pb.move_to(points[0].0, points[0].1);
         for p in &points[1..] {
@@ -146,8 +233,13 @@ impl Canvas {
             dash: dash.and_then(|d| StrokeDash::new(d.to_vec(), 0.0)),
             ..Stroke::default()
         };
-        self.pixmap
-            .stroke_path(&path, &paint(c), &stroke, Transform::identity(), mask);
+        self.pixmap.stroke_path(
+            &path,
+            &paint(c),
+            &stroke,
+            Transform::identity(),
+            mask.as_ref(),
+        );
     }
 
     pub fn stroke_rect(&mut self, x: f32, y: f32, w: f32, h: f32, width: f32, c: Colour) {
@@ -160,6 +252,14 @@ impl Canvas {
         let Some(path) = PathBuilder::from_circle(cx, cy, r) else {
             return;
         };
+        self.record(Op::Circle {
+            cx,
+            cy,
+            r,
+            fill,
+            line,
+            width: lw,
+        });
         self.pixmap.fill_path(
             &path,
             &paint(fill),
@@ -179,9 +279,17 @@ impl Canvas {
 
     /// Blends colour `c` with coverage `cover` (0–1) into one pixel.
     pub fn blend(&mut self, x: i32, y: i32, c: Colour, cover: f32) {
+        if self.blend_pixel(x, y, c, cover) {
+            self.dirty = Some(Dirty::grow(self.dirty, x as u32, y as u32));
+        }
+    }
+
+    /// `blend` without recording (for drawing whose operation is recorded whole);
+    /// false when the pixel is off the canvas or not covered.
+    fn blend_pixel(&mut self, x: i32, y: i32, c: Colour, cover: f32) -> bool {
         let (w, h) = (self.width() as i32, self.height() as i32);
         if x < 0 || y < 0 || x >= w || y >= h || cover <= 0.0 {
-            return;
+            return false;
         }
         let a = (cover.min(1.0) * c.a as f32 / 255.0).clamp(0.0, 1.0);
         let idx = (y * w + x) as usize;
@@ -194,118 +302,24 @@ impl Canvas {
         let b = mix(c.b, dst.blue()).min(out_a);
         self.pixmap.pixels_mut()[idx] =
             PremultipliedColorU8::from_rgba(r, g, b, out_a).expect("valid premultiplied colour");
+        true
     }
 
     /// Lays a straight-alpha raster over the canvas with its top-left corner at
     /// (x0, y0), "over" compositing; what falls outside the canvas is dropped.
     pub fn paste(&mut self, x0: i32, y0: i32, img: &image::RgbaImage) {
+        self.record(Op::Image {
+            x: x0,
+            y: y0,
+            image: img.clone(),
+        });
         for (x, y, p) in img.enumerate_pixels() {
             let [r, g, b, a] = p.0;
             if a > 0 {
                 let c = Colour { r, g, b, a };
-                self.blend(x0 + x as i32, y0 + y as i32, c, 1.0);
+                self.blend_pixel(x0 + x as i32, y0 + y as i32, c, 1.0);
             }
         }
-    }
-
-    /// Draws one line of markup at `size` px anchored at (x, y).
-    pub fn text(&mut self, s: &str, size: f32, x: f32, y: f32, align: (HAlign, VAlign), c: Colour) {
-        let e = text::measure(s, size);
-        let (dx, dy) = offsets(&e, align);
-        let (ox, oy) = ((x + dx).round() as i32, (y + dy).round() as i32);
-        let mut cover = Vec::new();
-        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
-        for (px, py, v) in cover {
-            self.blend(ox + px, oy + py, c, v);
-        }
-    }
-
-    /// Draws text turned 90° anticlockwise (reading upwards), for vertical axis labels;
-    /// `align` refers to the turned text's own frame.
-    pub fn text_up(
-        &mut self,
-        s: &str,
-        size: f32,
-        x: f32,
-        y: f32,
-        align: (HAlign, VAlign),
-        c: Colour,
-    ) {
-        let e = text::measure(s, size);
-        let (dx, dy) = offsets(&e, align);
-        let mut cover = Vec::new();
-        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
-        for (px, py, v) in cover {
-            // Text frame (u right, w down) → canvas: u runs up, w runs right.
-            let (u, w) = (px as f32 + dx, py as f32 + dy);
-            self.blend((x + w).round() as i32, (y - u).round() as i32, c, v);
-        }
-    }
-
-    /// Draws text turned 90° clockwise (reading downwards).
-    pub fn text_down(
-        &mut self,
-        s: &str,
-        size: f32,
-        x: f32,
-        y: f32,
-        align: (HAlign, VAlign),
-        c: Colour,
-    ) {
-        let e = text::measure(s, size);
-        let (dx, dy) = offsets(&e, align);
-        let mut cover = Vec::new();
-        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
-        for (px, py, v) in cover {
-            let (u, w) = (px as f32 + dx, py as f32 + dy);
-            self.blend((x - w).round() as i32, (y + u).round() as i32, c, v);
-        }
-    }
-
-    /// The canvas shrunk by an integer `factor`, each pixel the mean of a block:
-    /// drawing large and shrinking smooths what was placed on whole pixels.
-    pub fn downsample(&self, factor: u32) -> Canvas {
-        let f = factor.max(1);
-        let (w, h) = (self.width() / f, self.height() / f);
-        let mut out = Pixmap::new(w.max(1), h.max(1)).expect("non-zero canvas");
-        let src = self.pixmap.pixels();
-        let sw = self.width() as usize;
-        let n = f * f;
-        for y in 0..h as usize {
-            for x in 0..w as usize {
-                let mut acc = [0u32; 4];
-                for dy in 0..f as usize {
-                    for dx in 0..f as usize {
-                        let p = src[(y * f as usize + dy) * sw + x * f as usize + dx];
-                        acc[0] += p.red() as u32;
-                        acc[1] += p.green() as u32;
-                        acc[2] += p.blue() as u32;
-                        acc[3] += p.alpha() as u32;
-                    }
-                }
-                let m = |v: u32| ((v + n / 2) / n) as u8;
-                let a = m(acc[3]);
-                out.pixels_mut()[y * w as usize + x] = PremultipliedColorU8::from_rgba(
-                    m(acc[0]).min(a),
-                    m(acc[1]).min(a),
-                    m(acc[2]).min(a),
-                    a,
-                )
-                .expect("valid premultiplied colour");
-            }
-        }
-        Canvas { pixmap: out }
-    }
-
-    /// The pixels as a straight-alpha raster (tiny-skia keeps them premultiplied).
-    pub fn to_image(&self) -> image::RgbaImage {
-        let (w, h) = (self.pixmap.width(), self.pixmap.height());
-        let mut raw = Vec::with_capacity(w as usize * h as usize * 4);
-        for p in self.pixmap.pixels() {
-            let c = p.demultiply();
-            raw.extend_from_slice(&[c.red(), c.green(), c.blue(), c.alpha()]);
-        }
-        image::RgbaImage::from_raw(w, h, raw).expect("the raster has w·h pixels")
     }
 
     /// The figure as a PNG file (see `io::png`).
@@ -314,18 +328,10 @@ impl Canvas {
     }
 }
 
-/// Offsets from the anchor to the left end of the baseline.
-pub fn offsets(e: &text::Extent, (h, v): (HAlign, VAlign)) -> (f32, f32) {
-    let dx = match h {
-        HAlign::Left => 0.0,
-        HAlign::Centre => -e.width / 2.0,
-        HAlign::Right => -e.width,
-    };
-    let dy = match v {
-        VAlign::Top => e.ascent,
-        VAlign::Middle => (e.ascent - e.descent) / 2.0,
-        VAlign::Baseline => 0.0,
-        VAlign::Bottom => -e.descent,
-    };
-    (dx, dy)
+/// A mask letting drawing through inside the rectangle (x, y, w, h) only.
+fn clip_mask(width: u32, height: u32, [x, y, w, h]: [f32; 4]) -> Option<Mask> {
+    let mut mask = Mask::new(width, height)?;
+    let path = PathBuilder::from_rect(Rect::from_xywh(x, y, w, h)?);
+    mask.fill_path(&path, FillRule::Winding, false, Transform::identity());
+    Some(mask)
 }
