@@ -139,7 +139,7 @@ impl FigureFlags {
         }
         Ok(lobecast::io::png::PngMeta {
             dpi: self.dpi,
-            title,
+            title: title.map(|t| lobecast::render::text::plain(&t)),
             command: Some(command_line()),
         })
     }

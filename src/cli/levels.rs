@@ -214,7 +214,7 @@ pub fn run(args: LevelsArgs) -> Result<()> {
                 100.0 * thumbs::ENCLOSE
             ));
         }
-        meta.title = Some(d.title.clone());
+        meta.title = Some(lobecast::render::text::plain(&d.title));
         files.push((slot, draw(&d)?.encode(format, &meta)?));
     }
     let mut out = plan.open()?;

@@ -143,7 +143,7 @@ fn picture(
         .collect();
     let canvas = compose(&l, &panels, &furniture);
     if meta.title.is_none() && !furniture.title.is_empty() {
-        meta.title = Some(furniture.title.clone());
+        meta.title = Some(lobecast::render::text::plain(&furniture.title));
     }
     canvas.encode(super::common::figure_format(args.png.as_deref())?, &meta)
 }

@@ -245,3 +245,47 @@ mod tests {
         assert!(ink > 20.0);
     }
 }
+
+/// Markup as plain Unicode text, for metadata that is not drawn (a PNG's Title, an
+/// SVG's `<title>`): digits and signs in `^{…}` and `_{…}` become super- and
+/// subscript characters, anything else keeps its letters without the braces.
+pub fn plain(markup: &str) -> String {
+    const SUP: [char; 10] = ['⁰', '¹', '²', '³', '⁴', '⁵', '⁶', '⁷', '⁸', '⁹'];
+    const SUB: [char; 10] = ['₀', '₁', '₂', '₃', '₄', '₅', '₆', '₇', '₈', '₉'];
+    let mut out = String::with_capacity(markup.len());
+    let mut shift: Option<bool> = None;
+    let mut chars = markup.chars().peekable();
+    while let Some(c) = chars.next() {
+        match (c, shift) {
+            ('^' | '_', None) if chars.peek() == Some(&'{') => {
+                chars.next();
+                shift = Some(c == '^');
+            }
+            ('}', Some(_)) => shift = None,
+            (d, Some(up)) if d.is_ascii_digit() => {
+                let k = d as usize - '0' as usize;
+                out.push(if up { SUP[k] } else { SUB[k] });
+            }
+            ('+', Some(up)) => out.push(if up { '⁺' } else { '₊' }),
+            ('-' | '−', Some(up)) => out.push(if up { '⁻' } else { '₋' }),
+            (c, _) => out.push(c),
+        }
+    }
+    out
+}
+
+#[cfg(test)]
+mod plain_tests {
+    /// Unicode superscripts and subscripts (Unicode block "Superscripts and
+    /// Subscripts", U+2070–U+209F, and U+00B2/U+00B3/U+00B9).
+    #[test]
+    fn markup_becomes_unicode() {
+        assert_eq!(
+            super::plain("H_{2}^{+} orbital levels"),
+            "H₂⁺ orbital levels"
+        );
+        assert_eq!(super::plain("C_{6}H_{6}"), "C₆H₆");
+        assert_eq!(super::plain("ρ (e bohr^{−3})"), "ρ (e bohr⁻³)");
+        assert_eq!(super::plain("a^b_c"), "a^b_c");
+    }
+}
