@@ -10,6 +10,7 @@ mod curve_report;
 pub mod demo;
 mod inspect;
 mod levels;
+mod levels_diagram;
 mod levels_thumbs;
 mod profile;
 mod progress;
