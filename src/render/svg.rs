@@ -6,6 +6,7 @@
 //! PNG of the same figure. The file's physical size follows `--dpi` as the PNG's
 //! `pHYs` does; title and command line go in `<title>` and `<desc>`.
 
+use base64::Engine as _;
 use std::fmt::Write;
 use std::path::Path;
 
@@ -197,7 +198,7 @@ fn element(s: &mut String, op: &Op, clips: &mut Vec<[f32; 4]>) -> Result<()> {
                     "<image x=\"{x}\" y=\"{y}\" width=\"{}\" height=\"{}\" preserveAspectRatio=\"none\" xlink:href=\"data:image/png;base64,{}\"/>",
                     image.width(),
                     image.height(),
-                    crate::io::base64::encode(&png)
+                    base64::engine::general_purpose::STANDARD.encode(&png)
                 );
             }
         }
