@@ -31,20 +31,7 @@ impl Canvas {
         align: (HAlign, VAlign),
         c: Colour,
     ) {
-        let e = text::measure(s, size);
-        let (dx, dy) = offsets(&e, align);
-        // The pixel (px, py) of the text frame lands on the canvas pixel
-        // (round(x + dy) + py, round(y − dx) − px): as a mapping of areas, the text
-        // point (u, w) goes to (round(x + dy) + w, round(y − dx) + 1 − u).
-        let (ex, fy) = ((x + dy).round(), (y - dx).round() + 1.0);
-        self.record_text(s, size, [0.0, -1.0, 1.0, 0.0, ex, fy], c);
-        let mut cover = Vec::new();
-        text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
-        for (px, py, v) in cover {
-            // Text frame (u right, w down) → canvas: u runs up, w runs right.
-            let (u, w) = (px as f32 + dx, py as f32 + dy);
-            self.blend_pixel((x + w).round() as i32, (y - u).round() as i32, c, v);
-        }
+        self.turned(s, size, (x, y), align, c, true);
     }
 
     /// Draws text turned 90° clockwise (reading downwards).
@@ -57,17 +44,51 @@ impl Canvas {
         align: (HAlign, VAlign),
         c: Colour,
     ) {
+        self.turned(s, size, (x, y), align, c, false);
+    }
+
+    /// Text turned a quarter up or down. Up: the pixel (px, py) of the text frame
+    /// lands on (round(x + dy) + py, round(y − dx) − px), so as a mapping of areas the
+    /// text point (u, w) goes to (round(x + dy) + w, round(y − dx) + 1 − u). Down is
+    /// the mirror: (u, w) → (round(x − dy) + 1 − w, round(y + dx) + u).
+    fn turned(
+        &mut self,
+        s: &str,
+        size: f32,
+        (x, y): (f32, f32),
+        align: (HAlign, VAlign),
+        c: Colour,
+        up: bool,
+    ) {
         let e = text::measure(s, size);
         let (dx, dy) = offsets(&e, align);
-        // As in `text_up`, turned the other way: (u, w) → (round(x − dy) + 1 − w,
-        // round(y + dx) + u).
-        let (ex, fy) = ((x - dy).round() + 1.0, (y + dx).round());
-        self.record_text(s, size, [0.0, 1.0, -1.0, 0.0, ex, fy], c);
+        let matrix = if up {
+            [
+                0.0,
+                -1.0,
+                1.0,
+                0.0,
+                (x + dy).round(),
+                (y - dx).round() + 1.0,
+            ]
+        } else {
+            [
+                0.0,
+                1.0,
+                -1.0,
+                0.0,
+                (x - dy).round() + 1.0,
+                (y + dx).round(),
+            ]
+        };
+        self.record_text(s, size, matrix, c);
         let mut cover = Vec::new();
         text::rasterize(s, size, |px, py, v| cover.push((px, py, v)));
         for (px, py, v) in cover {
+            // Text frame (u right, w down) → canvas.
             let (u, w) = (px as f32 + dx, py as f32 + dy);
-            self.blend_pixel((x - w).round() as i32, (y + u).round() as i32, c, v);
+            let (cx, cy) = if up { (x + w, y - u) } else { (x - w, y + u) };
+            self.blend_pixel(cx.round() as i32, cy.round() as i32, c, v);
         }
     }
 
