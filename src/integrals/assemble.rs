@@ -17,7 +17,7 @@ pub struct OneElectronMatrices {
     pub hamiltonian: DMatrix<f64>,
 }
 
-fn cartesian(g: &GaussianShell) -> CartesianShell<'_> {
+pub(super) fn cartesian(g: &GaussianShell) -> CartesianShell<'_> {
     CartesianShell {
         l: g.l,
         center: g.center,
@@ -27,7 +27,7 @@ fn cartesian(g: &GaussianShell) -> CartesianShell<'_> {
 }
 
 /// rowsₐ · C · rows_bᵀ: from Cartesian components to the shells' own functions.
-fn transform(a: &GaussianShell, b: &GaussianShell, cart: &[f64]) -> Vec<f64> {
+pub(super) fn transform(a: &GaussianShell, b: &GaussianShell, cart: &[f64]) -> Vec<f64> {
     let nb_cart = b.rows.first().map_or(0, Vec::len);
     let mut out = vec![0.0; a.len() * b.len()];
     for (fa, ra) in a.rows.iter().enumerate() {
@@ -44,7 +44,7 @@ fn transform(a: &GaussianShell, b: &GaussianShell, cart: &[f64]) -> Vec<f64> {
     out
 }
 
-fn gaussians(basis: &Basis) -> Option<Vec<&GaussianShell>> {
+pub(super) fn gaussians(basis: &Basis) -> Option<Vec<&GaussianShell>> {
     basis
         .shells
         .iter()
@@ -56,7 +56,7 @@ fn gaussians(basis: &Basis) -> Option<Vec<&GaussianShell>> {
 }
 
 /// Fills symmetric matrices from the upper-triangle shell pairs, computed in parallel.
-fn build(
+pub(super) fn build(
     basis: &Basis,
     shells: &[&GaussianShell],
     block: impl Fn(&GaussianShell, &GaussianShell) -> Vec<f64> + Sync,
