@@ -62,6 +62,7 @@ static LATTICE: LazyLock<OrbitalSet> = LazyLock::new(|| {
         reference: None,
         notes: Vec::new(),
         degeneracy: lobecast::solve::degenerate::tolerance(false),
+        spin: Default::default(),
     }
 });
 

@@ -68,6 +68,7 @@ static SAMPLER: LazyLock<(FieldSampler, usize)> = LazyLock::new(|| {
         caveats: Vec::new(),
         reference: None,
         degeneracy: lobecast::solve::degenerate::tolerance(false),
+        spin: Default::default(),
         notes: vec![],
     };
     let fields = [Field::parse("orbital:1").unwrap()];

@@ -27,7 +27,7 @@ fn load() -> Source {
     let path = Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/benzene.xyz");
     let options = LoadOptions {
         method: Some(MethodKind::ExtendedHuckel),
-        charge: None,
+        ..Default::default()
     };
     Source::load(&path, &options).unwrap()
 }

@@ -16,6 +16,9 @@ pub enum Kind {
     Environment,
     /// A fault in lobecast (a broken invariant): worth a bug report.
     Internal,
+    /// An iterative method ran out of iterations: the input was valid, the answer
+    /// was not found; the message carries the last figures.
+    Unconverged,
 }
 
 impl Kind {
@@ -23,7 +26,7 @@ impl Kind {
     pub fn exit_status(self) -> i32 {
         match self {
             Kind::Input => 2,
-            Kind::Environment | Kind::Internal => 1,
+            Kind::Environment | Kind::Internal | Kind::Unconverged => 1,
         }
     }
 }
@@ -55,6 +58,10 @@ impl Error {
 
     pub fn environment(message: impl Into<String>) -> Self {
         Self::new(Kind::Environment, message)
+    }
+
+    pub fn unconverged(message: impl Into<String>) -> Self {
+        Error::new(Kind::Unconverged, message)
     }
 
     pub fn internal(message: impl Into<String>) -> Self {

@@ -268,7 +268,7 @@ fn extended_huckel_titles_give_energies_in_ev() {
         &example("ethylene.xyz"),
         &lobecast::io::model::LoadOptions {
             method: Some(lobecast::solve::MethodKind::ExtendedHuckel),
-            charge: None,
+            ..Default::default()
         },
     )
     .unwrap()

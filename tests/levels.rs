@@ -24,7 +24,7 @@ fn ion() -> (OrbitalSet, Vec<Fragment>, Vec<Vec<Vec<f64>>>) {
 fn ethylene() -> (OrbitalSet, Vec<Fragment>, Vec<Vec<Vec<f64>>>) {
     let options = LoadOptions {
         method: Some(MethodKind::ExtendedHuckel),
-        charge: None,
+        ..Default::default()
     };
     let model = load_with(&example("ethylene.xyz"), &options).unwrap();
     let set = orbitals_for(&model.molecule, &model.method).unwrap();

@@ -17,19 +17,61 @@ pub fn load_model(path: &Path) -> Result<Model> {
 /// How to treat an XYZ file given in place of a model file.
 #[derive(Debug, Args, Clone, Default)]
 pub struct XyzFlags {
-    /// For an XYZ file: how to get the orbitals (extended-huckel)
+    /// For an XYZ file: how to get the orbitals: rhf or uhf (Hartree–Fock, with
+    /// --basis), or extended-huckel (qualitative valence orbitals)
     #[arg(long, value_name = "METHOD")]
     pub method: Option<String>,
+    /// For an XYZ file with --method rhf/uhf: the basis set (sto-3g, 3-21g, 6-31g,
+    /// 6-31g*, 6-31g**, cc-pvdz)
+    #[arg(long, value_name = "SET")]
+    pub basis: Option<String>,
     /// For an XYZ file: the net charge of the molecule [default: 0]
     #[arg(long, allow_negative_numbers = true, value_name = "Q")]
     pub charge: Option<i32>,
+    /// For an XYZ file with --method rhf/uhf: the spin multiplicity 2S+1
+    /// [default: 1 for an even electron count, 2 for an odd one]
+    #[arg(long, value_name = "M", allow_negative_numbers = true)]
+    pub multiplicity: Option<i64>,
+    /// Hartree–Fock: the most SCF iterations before giving up [default: 128]
+    #[arg(long, value_name = "N", allow_negative_numbers = true)]
+    pub max_iterations: Option<i64>,
+    /// Unrestricted orbitals: the spin channel that orbital fields use [default: alpha]
+    #[arg(long, value_name = "SPIN", value_parser = super::values::channel())]
+    pub spin: Option<lobecast::solve::orbitals::Channel>,
 }
 
 impl XyzFlags {
     pub fn options(&self) -> Result<LoadOptions> {
+        let multiplicity = self
+            .multiplicity
+            .map(|m| {
+                u32::try_from(m)
+                    .ok()
+                    .filter(|&m| (1..=1000).contains(&m))
+                    .ok_or_else(|| {
+                        Error::input(format!("--multiplicity must be 1 to 1000, got {m}"))
+                    })
+            })
+            .transpose()?;
+        let max = lobecast::io::model::MAX_SCF_ITERATIONS;
+        let max_iterations = self
+            .max_iterations
+            .map(|n| {
+                usize::try_from(n)
+                    .ok()
+                    .filter(|&n| (1..=max).contains(&n))
+                    .ok_or_else(|| {
+                        Error::input(format!("--max-iterations must be 1 to {max}, got {n}"))
+                    })
+            })
+            .transpose()?;
         Ok(LoadOptions {
             method: self.method.as_deref().map(MethodKind::parse).transpose()?,
             charge: self.charge,
+            basis: self.basis.clone(),
+            multiplicity,
+            max_iterations,
+            spin: self.spin,
         })
     }
 }

@@ -173,12 +173,17 @@ pub fn run(args: LevelsArgs) -> Result<()> {
     let mut plan = OutputPlan::new(&model.inputs);
     let png = plan.add_opt(args.png.as_deref(), true)?;
     let csv = plan.add_opt(args.csv.as_deref(), false)?;
-    let set = orbitals_within(
+    let mut set = orbitals_within(
         &model.molecule,
         &model.method,
         args.memory.memory,
         &mut |_| {},
     )?;
+    // The diagram draws one channel: alpha, or beta on request.
+    if let Some(c) = args.xyz.spin {
+        set.show(c)?;
+        set.orbitals = set.shown().to_vec();
+    }
     if set.orbitals.is_empty() {
         return Err(Error::input("the source has no orbitals to draw"));
     }

@@ -14,6 +14,7 @@ mod levels_diagram;
 mod levels_thumbs;
 mod profile;
 mod progress;
+mod scf_report;
 mod slice;
 mod solve;
 mod surface;

@@ -7,7 +7,7 @@ use clap::Args;
 use super::common::{XyzFlags, load_model_with, print_notes, print_out, say};
 use lobecast::chem::units::hartree_to_ev;
 use lobecast::error::Result;
-use lobecast::solve::{MethodKind, OrbitalSet, degenerate, orbitals_within};
+use lobecast::solve::{Method, MethodKind, OrbitalSet, degenerate, orbitals_reporting};
 
 #[derive(Debug, Args)]
 pub struct SolveArgs {
@@ -31,45 +31,74 @@ pub fn run(args: SolveArgs) -> Result<()> {
     let mut plan = lobecast::output::OutputPlan::new(&model.inputs);
     let json = plan.add_opt(args.json.as_deref(), false)?;
     // A long solve (over about 1e11 operations) shows a spinner on standard error
-    // when it is a terminal.
+    // when it is a terminal; a Hartree–Fock run shows its integrals and iterations.
     let mut spinner = None;
-    let set = orbitals_within(&model.molecule, &model.method, args.memory, &mut |e| {
-        if e.work > 1e11 {
-            let what = format!("solving in {} basis functions", e.functions);
-            spinner = Some(super::progress::spinner(&what));
-        }
-    });
+    let mut scf_progress = super::scf_report::ScfProgress::new();
+    let set = orbitals_reporting(
+        &model.molecule,
+        &model.method,
+        args.memory,
+        &mut |e| {
+            if e.work > 1e11 && !matches!(model.method, Method::HartreeFock { .. }) {
+                let what = format!("solving in {} basis functions", e.functions);
+                spinner = Some(super::progress::spinner(&what));
+            }
+        },
+        &mut |stage| scf_progress.on(stage),
+    );
+    scf_progress.finish();
     if let Some(s) = spinner {
         s.finish_and_clear();
     }
     let set = set?;
-    // Extended-Hückel sets (solved now or read back from an orbital file) have no
-    // total energy to speak of.
     // The electrons the orbitals hold, as occupied: fractional occupations stay
     // fractional (an orbital file may carry them).
-    let occupied: f64 = set.orbitals.iter().map(|o| o.occupation).sum();
+    let occupied: f64 = set.occupied().map(|o| o.occupation).sum();
     let electrons = if (occupied - occupied.round()).abs() <= 1e-9 {
         format!("{}", occupied.round())
     } else {
         format!("{occupied:.4}")
     };
-    if set.reference.is_some() || set.origin == MethodKind::ExtendedHuckel {
+    let what = format!(
+        "lobecast solve: {} from {}, {}",
+        set.molecule.formula_with_charge(),
+        model.path.display(),
+        set.method
+    );
+    if let Some(r) = set.spin.scf.as_deref() {
         say!(
-            "lobecast solve: {} from {}, {}, {electrons} valence electron(s); orbital energies only (no total energy)",
-            set.molecule.formula_with_charge(),
-            model.path.display(),
-            set.method,
+            "{what}, {electrons} electrons ({} alpha, {} beta), multiplicity {}, {} basis functions",
+            r.alpha_electrons,
+            r.beta_electrons,
+            set.spin.multiplicity.unwrap_or(1),
+            set.basis.len()
+        );
+        print_out(&super::scf_report::report(&set, r))?;
+    } else if set.reference.is_some() || set.origin == MethodKind::ExtendedHuckel {
+        say!("{what}, {electrons} valence electron(s); orbital energies only (no total energy)");
+    } else if set.origin == MethodKind::File {
+        say!(
+            "{what}, {electrons} electron(s); orbital energies as the file states them{}",
+            set.spin.total_energy.map_or(String::new(), |e| format!(
+                "; total energy {e:.10} hartree (from the file)"
+            ))
         );
     } else {
         say!(
-            "lobecast solve: {} from {}, {}, {electrons} electron(s); energies include the nuclear repulsion {:.8} hartree",
-            set.molecule.formula_with_charge(),
-            model.path.display(),
-            set.method,
+            "{what}, {electrons} electron(s); energies include the nuclear repulsion {:.8} hartree",
             set.molecule.nuclear_repulsion()
         );
     }
-    print_out(&table(&set))?;
+    if let Some(beta) = &set.spin.beta {
+        say!("alpha orbitals:");
+        print_out(&table(&set))?;
+        let mut b = set.clone();
+        b.orbitals = beta.clone();
+        say!("beta orbitals:");
+        print_out(&table(&b))?;
+    } else {
+        print_out(&table(&set))?;
+    }
     if let Some(q) = set.mulliken_charges() {
         print_out(&charges(&set, &q))?;
     }
@@ -134,7 +163,12 @@ fn table(set: &OrbitalSet) -> String {
 /// Mulliken charges per atom (valence electrons of the free atom minus the gross
 /// population), labelled with the method's caution.
 fn charges(set: &OrbitalSet, q: &[f64]) -> String {
-    let mut t = String::from("Mulliken charges (semi-empirical, qualitative):\n");
+    let kind = if set.origin == MethodKind::ExtendedHuckel {
+        "semi-empirical, qualitative"
+    } else {
+        "they depend strongly on the basis set"
+    };
+    let mut t = format!("Mulliken charges ({kind}):\n");
     for (i, (a, q)) in set.molecule.atoms.iter().zip(q).enumerate() {
         t += &format!("{:>4} {:<2} {:+9.4}\n", i + 1, a.element.symbol, q);
     }

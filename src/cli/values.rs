@@ -15,6 +15,10 @@ where
     PossibleValuesParser::new(names).try_map(|s| s.parse::<T>())
 }
 
+pub fn channel() -> impl TypedValueParser<Value = lobecast::solve::orbitals::Channel> {
+    choice(&["alpha", "beta"])
+}
+
 pub fn length_unit() -> impl TypedValueParser<Value = LengthUnit> {
     choice(&["angstrom", "bohr"])
 }

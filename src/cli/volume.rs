@@ -48,12 +48,15 @@ pub fn run(args: VolumeArgs) -> Result<()> {
     let mut plan = OutputPlan::new(&model.inputs);
     let slot = plan.add(&args.out)?;
     args.grid.check()?;
-    let set = lobecast::solve::orbitals_within(
+    let mut set = lobecast::solve::orbitals_within(
         &model.molecule,
         &model.method,
         args.memory.memory,
         &mut |_| {},
     )?;
+    if let Some(c) = args.xyz.spin {
+        set.show(c)?;
+    }
     let sampler = FieldSampler::new(&set, &fields)?;
     let grid = args.grid.grid(&set.molecule)?;
     let source = model.path.display().to_string();

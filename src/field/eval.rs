@@ -50,9 +50,9 @@ impl FieldSampler {
     pub fn new(set: &OrbitalSet, fields: &[Field]) -> Result<Self> {
         let mut resolved = Vec::with_capacity(fields.len());
         for f in fields {
-            let index = f.selector().map(|s| s.resolve(&set.orbitals)).transpose()?;
+            let index = f.selector().map(|s| s.resolve(set.shown())).transpose()?;
             let coeffs = || {
-                set.orbitals[index.expect("orbital field")]
+                set.shown()[index.expect("orbital field")]
                     .coefficients
                     .clone()
             };
@@ -65,6 +65,16 @@ impl FieldSampler {
                 ),
                 Field::Stored(_) => return Err(super::stored_needs_cube()),
                 Field::Density => Resolved::Density(occupied(set)),
+                Field::SpinDensity => Resolved::Density(spin_density(set)?),
+                Field::Deformation if set.reference.is_none() && set.spin.free_atoms.is_some() => {
+                    // ρ − Σ_atoms Σ_k n_k χ_k²: the free atoms' orbitals with
+                    // negative weights; no diagonal reference.
+                    let mut list = occupied(set);
+                    for (n, c) in set.spin.free_atoms.iter().flatten() {
+                        list.push((-n, c.clone()));
+                    }
+                    Resolved::Deformation(list, vec![0.0; set.basis.len()])
+                }
                 Field::Deformation => Resolved::Deformation(
                     occupied(set),
                     set.reference.clone().ok_or_else(|| {
@@ -205,9 +215,31 @@ fn slab_tiles(ny: usize, nz: usize) -> impl Iterator<Item = (usize, usize)> {
 }
 
 fn occupied(set: &OrbitalSet) -> Vec<(f64, Vec<f64>)> {
-    set.orbitals
-        .iter()
+    set.occupied()
         .filter(|o| o.occupation > 0.0)
         .map(|o| (o.occupation, o.coefficients.clone()))
         .collect()
+}
+
+/// ρ_α − ρ_β as weighted orbital densities: alpha orbitals +n, beta orbitals −n.
+fn spin_density(set: &OrbitalSet) -> Result<Vec<(f64, Vec<f64>)>> {
+    let beta = set.spin.beta.as_ref().ok_or_else(|| {
+        crate::error::Error::input(format!(
+            "spin-density needs unrestricted orbitals (alpha and beta), which {} does not have",
+            set.method
+        ))
+        .with_hint("solve with --method uhf")
+    })?;
+    let mut list: Vec<(f64, Vec<f64>)> = set
+        .orbitals
+        .iter()
+        .filter(|o| o.occupation > 0.0)
+        .map(|o| (o.occupation, o.coefficients.clone()))
+        .collect();
+    list.extend(
+        beta.iter()
+            .filter(|o| o.occupation > 0.0)
+            .map(|o| (-o.occupation, o.coefficients.clone())),
+    );
+    Ok(list)
 }

@@ -33,8 +33,10 @@ pub enum Field {
     /// where the orbital gains and loses density against its own atomic pieces.
     /// It integrates to zero. bohr⁻³.
     OrbitalDeformation(OrbitalSelector),
-    /// Σ_i n_i |ψ_i|² over occupied orbitals, bohr⁻³.
+    /// Σ_i n_i |ψ_i|² over occupied orbitals (both spins), bohr⁻³.
     Density,
+    /// ρ_α − ρ_β of unrestricted orbitals, bohr⁻³. Integrates to 2S.
+    SpinDensity,
     /// Density minus the superposition of neutral, spherical free atoms in the same
     /// functions: Σ_i n_i |ψ_i|² − Σ_μ n⁰_μ φ_μ², with n⁰ the free-atom ground-state
     /// occupations (p spread evenly). Integrates to −charge. bohr⁻³.
@@ -43,7 +45,7 @@ pub enum Field {
     Stored(usize),
 }
 
-const ACCEPTED: &str = "orbital:N, orbital-density:N, orbital-deformation:N (N a number, homo, lumo, homo-1, lumo+1, …), density, deformation, or stored:K for the K-th field of a cube file";
+const ACCEPTED: &str = "orbital:N, orbital-density:N, orbital-deformation:N (N a number, homo, lumo, homo-1, lumo+1, …), density, spin-density, deformation, or stored:K for the K-th field of a cube file";
 
 impl Field {
     pub fn parse(text: &str) -> Result<Self> {
@@ -55,6 +57,7 @@ impl Field {
         match t.split_once(':') {
             None if t.eq_ignore_ascii_case("density") => Ok(Field::Density),
             None if t.eq_ignore_ascii_case("deformation") => Ok(Field::Deformation),
+            None if t.eq_ignore_ascii_case("spin-density") => Ok(Field::SpinDensity),
             None => Err(bad()),
             Some((kind, k)) if kind.eq_ignore_ascii_case("stored") => {
                 match k.trim().parse::<usize>() {
@@ -79,7 +82,7 @@ impl Field {
     pub fn selector(&self) -> Option<OrbitalSelector> {
         match self {
             Field::Orbital(s) | Field::OrbitalDensity(s) | Field::OrbitalDeformation(s) => Some(*s),
-            Field::Density | Field::Deformation | Field::Stored(_) => None,
+            Field::Density | Field::SpinDensity | Field::Deformation | Field::Stored(_) => None,
         }
     }
 
@@ -87,7 +90,10 @@ impl Field {
     pub fn is_signed(&self) -> bool {
         matches!(
             self,
-            Field::Orbital(_) | Field::OrbitalDeformation(_) | Field::Deformation
+            Field::Orbital(_)
+                | Field::OrbitalDeformation(_)
+                | Field::Deformation
+                | Field::SpinDensity
         )
     }
 
@@ -107,6 +113,9 @@ impl Field {
             Field::OrbitalDensity(_) => "orbital density",
             Field::OrbitalDeformation(_) => "orbital deformation density",
             Field::Density => return Ok(format!("electron density ({})", self.unit())),
+            Field::SpinDensity => {
+                return Ok("spin density ρ_α − ρ_β (bohr^-3)".to_string());
+            }
             Field::Deformation => {
                 return Ok(format!(
                     "deformation density against neutral spherical atoms ({})",
@@ -118,8 +127,13 @@ impl Field {
         let i = self
             .selector()
             .expect("orbital fields carry a selector")
-            .resolve(&set.orbitals)?;
-        let o = &set.orbitals[i];
+            .resolve(set.shown())?;
+        let o = &set.shown()[i];
+        let kind = if set.is_unrestricted() {
+            format!("{} {kind}", set.spin.shown.name())
+        } else {
+            kind.to_string()
+        };
         Ok(format!(
             "{kind} {} (E = {:.6} hartree, occupation {}) in {}",
             i + 1,
@@ -133,7 +147,7 @@ impl Field {
     pub fn orbital_number(&self, set: &OrbitalSet) -> Result<usize> {
         match (self, self.selector()) {
             (Field::Stored(_), _) => Err(stored_needs_cube()),
-            (_, Some(s)) => Ok(s.resolve(&set.orbitals)? + 1),
+            (_, Some(s)) => Ok(s.resolve(set.shown())? + 1),
             (_, None) => Ok(0),
         }
     }
@@ -152,6 +166,7 @@ impl std::fmt::Display for Field {
             Field::OrbitalDeformation(s) => write!(f, "orbital-deformation:{s}"),
             Field::Density => write!(f, "density"),
             Field::Deformation => write!(f, "deformation"),
+            Field::SpinDensity => write!(f, "spin-density"),
             Field::Stored(k) => write!(f, "stored:{k}"),
         }
     }

@@ -48,6 +48,8 @@ struct MoleculeSection {
     units: LengthUnit,
     #[serde(default)]
     charge: i32,
+    /// 2S + 1, for Hartree–Fock (default: 1 or 2 by the electron count).
+    multiplicity: Option<u32>,
     atoms: Option<Vec<AtomEntry>>,
     xyz: Option<String>,
 }
@@ -73,6 +75,9 @@ struct OrbitalsSection {
     off_diagonal: Option<OffDiagonal>,
     /// Extended Hückel: per-element overrides of the exponents and H_ii (eV).
     parameters: Option<BTreeMap<String, ElementOverride>>,
+    /// Hartree–Fock: the most SCF iterations before giving up.
+    #[serde(rename = "max-iterations")]
+    max_iterations: Option<usize>,
 }
 
 /// What the command line adds when the model is a bare XYZ file.
@@ -80,6 +85,45 @@ struct OrbitalsSection {
 pub struct LoadOptions {
     pub method: Option<MethodKind>,
     pub charge: Option<i32>,
+    /// The named basis set, for Hartree–Fock on an XYZ file.
+    pub basis: Option<String>,
+    pub multiplicity: Option<u32>,
+    /// Hartree–Fock: overrides the most SCF iterations (model file or default).
+    pub max_iterations: Option<usize>,
+    /// The spin channel orbital fields use (unrestricted orbitals); not a property
+    /// of the model, applied to the solved set by whoever solves it.
+    pub spin: Option<crate::solve::orbitals::Channel>,
+}
+
+/// The most SCF iterations anyone may ask for (each costs a two-electron build).
+pub const MAX_SCF_ITERATIONS: usize = 10_000;
+
+/// Hartree–Fock options from the method name and the user's numbers, checked.
+fn scf_options(
+    kind: MethodKind,
+    multiplicity: Option<u32>,
+    max_iterations: Option<usize>,
+) -> Result<crate::solve::scf::ScfOptions> {
+    use crate::solve::scf::{Reference, ScfOptions};
+    let reference = match kind {
+        MethodKind::Uhf => Reference::Unrestricted,
+        _ => Reference::Restricted,
+    };
+    let mut o = ScfOptions::new(reference);
+    o.multiplicity = multiplicity;
+    if let Some(n) = max_iterations {
+        if !(1..=MAX_SCF_ITERATIONS).contains(&n) {
+            return Err(Error::input(format!(
+                "max-iterations must be 1 to {MAX_SCF_ITERATIONS}, got {n}"
+            )));
+        }
+        o.max_iterations = n;
+    }
+    Ok(o)
+}
+
+fn is_scf(kind: MethodKind) -> bool {
+    matches!(kind, MethodKind::Rhf | MethodKind::Uhf)
 }
 
 /// A read and checked model: what to solve and how, not yet solved.
@@ -123,12 +167,34 @@ pub fn load_with(path: &Path, options: &LoadOptions) -> Result<Model> {
     if is_xyz {
         return from_xyz(path, options);
     }
-    if options.method.is_some() || options.charge.is_some() {
+    if options.method.is_some()
+        || options.charge.is_some()
+        || options.basis.is_some()
+        || options.multiplicity.is_some()
+    {
         return Err(Error::input(format!(
-            "--method and --charge apply to an XYZ file; {} says them itself",
+            "--method, --basis, --charge and --multiplicity apply to an XYZ file; {} says them itself",
             path.display()
         ))
-        .with_hint("set [orbitals] method and [molecule] charge in the model file"));
+        .with_hint("set [orbitals] method, [basis] set and [molecule] charge and multiplicity in the model file"));
+    }
+    if let Some(n) = options.max_iterations {
+        let mut model = load(path)?;
+        let Method::HartreeFock { options: o, .. } = &mut model.method else {
+            return Err(Error::input(
+                "--max-iterations goes with Hartree–Fock (method rhf or uhf)",
+            ));
+        };
+        *o = scf_options(
+            if o.reference == crate::solve::scf::Reference::Unrestricted {
+                MethodKind::Uhf
+            } else {
+                MethodKind::Rhf
+            },
+            o.multiplicity,
+            Some(n),
+        )?;
+        return Ok(model);
     }
     if path
         .extension()
@@ -158,8 +224,19 @@ fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
         Error::input(format!(
             "{name} is an XYZ file: say how to get its orbitals"
         ))
-        .with_hint("add --method extended-huckel (and --charge Q for an ion)")
+        .with_hint(
+            "add --method rhf --basis 6-31g* (or --method extended-huckel); --charge Q for an ion",
+        )
     })?;
+    if !is_scf(method)
+        && (options.basis.is_some()
+            || options.multiplicity.is_some()
+            || options.max_iterations.is_some())
+    {
+        return Err(Error::input(
+            "--basis, --multiplicity and --max-iterations go with --method rhf or uhf",
+        ));
+    }
     let text =
         std::fs::read_to_string(path).map_err(|e| Error::reading(format!("xyz file {name}"), e))?;
     let frame = parse_xyz(&text, &name, LengthUnit::Angstrom)?;
@@ -182,9 +259,38 @@ fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
                 inputs: vec![path.to_path_buf()],
             })
         }
+        MethodKind::Rhf | MethodKind::Uhf => {
+            let set = options.basis.as_deref().ok_or_else(|| {
+                Error::input(format!("--method {} needs --basis", method_name(method)))
+                    .with_hint(format!("the basis sets: {}", crate::basis::sets::SET_NAMES))
+            })?;
+            let spec = BasisSpec::named(set);
+            let basis = spec.build(&molecule).map_err(|e| e.context(&name))?;
+            let options = scf_options(method, options.multiplicity, options.max_iterations)?;
+            crate::solve::scf::occupation::spin_counts(
+                &molecule,
+                options.multiplicity,
+                options.reference,
+            )
+            .map_err(|e| e.context(&name))?;
+            Ok(Model {
+                path: path.to_path_buf(),
+                molecule,
+                spec: Some(spec),
+                method: Method::HartreeFock { basis, options },
+                inputs: vec![path.to_path_buf()],
+            })
+        }
         _ => Err(Error::input(format!(
-            "{name}: an XYZ file needs --method extended-huckel (other methods need a basis: use a model file)"
+            "{name}: an XYZ file needs --method rhf, uhf (with --basis) or extended-huckel (one-electron needs a model file)"
         ))),
+    }
+}
+
+fn method_name(kind: MethodKind) -> &'static str {
+    match kind {
+        MethodKind::Uhf => "uhf",
+        _ => "rhf",
     }
 }
 
@@ -314,10 +420,34 @@ pub fn parse(text: &str, path: &Path) -> Result<Model> {
     crate::chem::molecule::check_separations(&atoms, |_| String::new())
         .map_err(|e| e.context(&name))?;
     let molecule = Molecule::new(atoms, m.charge).map_err(|e| e.context(&name))?;
+    let scf = is_scf(file.orbitals.method);
+    if !scf && (m.multiplicity.is_some() || file.orbitals.max_iterations.is_some()) {
+        return Err(Error::input(format!(
+            "{name}: [molecule] multiplicity and [orbitals] max-iterations are only used with method = \"rhf\" or \"uhf\""
+        )));
+    }
     if huckel.is_some() {
         huckel_coverage(&molecule).map_err(|e| e.context(&name))?;
     }
     let method = match (&spec, huckel) {
+        (Some(spec), _) if scf => {
+            let options = scf_options(
+                file.orbitals.method,
+                m.multiplicity,
+                file.orbitals.max_iterations,
+            )
+            .map_err(|e| e.context(&name))?;
+            crate::solve::scf::occupation::spin_counts(
+                &molecule,
+                options.multiplicity,
+                options.reference,
+            )
+            .map_err(|e| e.context(&name))?;
+            Method::HartreeFock {
+                basis: spec.build(&molecule)?,
+                options,
+            }
+        }
         (Some(spec), _) => Method::OneElectron {
             basis: spec.build(&molecule)?,
         },
@@ -440,7 +570,7 @@ mod huckel_tests {
         let e = MethodKind::parse("one-electorn").unwrap_err();
         assert_eq!(
             e.hint.as_deref(),
-            Some("the method for an XYZ file: extended-huckel"),
+            Some("the methods for an XYZ file: rhf, uhf (with --basis), extended-huckel"),
             "the hint lists only what an XYZ file accepts"
         );
         let e = parse(

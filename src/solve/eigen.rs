@@ -75,7 +75,7 @@ pub fn generalized_symmetric(h: &DMatrix<f64>, s: &DMatrix<f64>, threshold: f64)
     })
 }
 
-fn fix_sign(c: &mut DVector<f64>) {
+pub(crate) fn fix_sign(c: &mut DVector<f64>) {
     let max = c.iter().fold(0.0f64, |m, v| m.max(v.abs()));
     if let Some(first) = c.iter().find(|v| v.abs() > max * (1.0 - 1e-9)) {
         if *first < 0.0 {

@@ -112,7 +112,7 @@ impl SolveEstimate {
 pub fn for_method(molecule: &Molecule, method: &Method) -> Result<Option<SolveEstimate>> {
     Ok(match method {
         Method::Given(_) => None,
-        Method::OneElectron { basis } => {
+        Method::OneElectron { basis } | Method::HartreeFock { basis, .. } => {
             check_primitive_pairs(basis)?;
             let mut e = SolveEstimate::for_basis(basis);
             e.work += OPS_PER_PAIR * integral_work(basis, molecule.atoms.len());

@@ -158,6 +158,12 @@ pub fn solve_fragments(
                     basis: sub_basis(basis, atoms),
                 },
                 Method::ExtendedHuckel(o) => Method::ExtendedHuckel(o.clone()),
+                Method::HartreeFock { .. } => {
+                    return Err(Error::input(
+                        "fragments are solved with one-electron or extended-Hückel orbitals only, not Hartree–Fock",
+                    )
+                    .with_hint("draw the Hartree–Fock levels without --fragments"));
+                }
             };
             let fragment = orbitals_within(&molecule, &method, memory, &mut |_| {})?;
             let map = function_map(&set.basis, &fragment.basis, atoms)?;

@@ -91,6 +91,7 @@ pub fn solve(molecule: &Molecule, options: &HuckelOptions) -> Result<OrbitalSet>
         notes,
         reference: Some(vb.reference),
         degeneracy: tol,
+        spin: Default::default(),
     };
     canonicalise(&mut set);
     let shared = sharing_notes(&set);

@@ -5,7 +5,7 @@
 use serde::Deserialize;
 
 use super::huckel_params::HuckelOptions;
-use super::{OrbitalSet, estimate, huckel, one_electron};
+use super::{OrbitalSet, estimate, huckel, one_electron, scf};
 use crate::basis::Basis;
 use crate::chem::Molecule;
 use crate::error::{Error, Result};
@@ -19,6 +19,11 @@ pub enum Method {
     ExtendedHuckel(HuckelOptions),
     /// Orbitals taken as they are (read from an orbital file).
     Given(Box<OrbitalSet>),
+    /// Hartree–Fock (RHF or UHF, as the options say) in `basis`.
+    HartreeFock {
+        basis: Basis,
+        options: super::scf::ScfOptions,
+    },
 }
 
 /// A method's name alone, as a model file (`[orbitals] method`) or the command line
@@ -31,6 +36,10 @@ pub enum MethodKind {
     /// Orbitals from an orbital file.
     File,
     ExtendedHuckel,
+    /// Restricted closed-shell Hartree–Fock.
+    Rhf,
+    /// Unrestricted Hartree–Fock.
+    Uhf,
 }
 
 impl MethodKind {
@@ -39,10 +48,11 @@ impl MethodKind {
         match text.trim().to_ascii_lowercase().as_str() {
             "extended-huckel" | "extended-hückel" => Ok(MethodKind::ExtendedHuckel),
             "one-electron" => Ok(MethodKind::OneElectron),
-            // Only extended Hückel works on an XYZ file (the only place --method is
-            // read): one-electron needs a basis, which only a model file gives.
-            _ => Err(Error::input(format!("unknown method {text:?}"))
-                .with_hint("the method for an XYZ file: extended-huckel")),
+            "rhf" => Ok(MethodKind::Rhf),
+            "uhf" => Ok(MethodKind::Uhf),
+            _ => Err(Error::input(format!("unknown method {text:?}")).with_hint(
+                "the methods for an XYZ file: rhf, uhf (with --basis), extended-huckel",
+            )),
         }
     }
 }
@@ -53,13 +63,17 @@ impl Method {
             Method::OneElectron { .. } => MethodKind::OneElectron,
             Method::ExtendedHuckel(_) => MethodKind::ExtendedHuckel,
             Method::Given(_) => MethodKind::File,
+            Method::HartreeFock { options, .. } => match options.reference {
+                super::scf::Reference::Restricted => MethodKind::Rhf,
+                super::scf::Reference::Unrestricted => MethodKind::Uhf,
+            },
         }
     }
 
     /// The basis the method works in, where it is known before solving.
     pub fn basis(&self) -> Option<&Basis> {
         match self {
-            Method::OneElectron { basis } => Some(basis),
+            Method::OneElectron { basis } | Method::HartreeFock { basis, .. } => Some(basis),
             Method::Given(set) => Some(&set.basis),
             Method::ExtendedHuckel(_) => None,
         }
@@ -80,6 +94,18 @@ pub fn orbitals_within(
     memory: u64,
     announce: &mut dyn FnMut(&estimate::SolveEstimate),
 ) -> Result<OrbitalSet> {
+    orbitals_reporting(molecule, method, memory, announce, &mut |_| {})
+}
+
+/// Like `orbitals_within`, and a self-consistent run tells `progress` how it goes
+/// (integrals, then every iteration).
+pub fn orbitals_reporting(
+    molecule: &Molecule,
+    method: &Method,
+    memory: u64,
+    announce: &mut dyn FnMut(&estimate::SolveEstimate),
+    progress: &mut (dyn FnMut(scf::Stage) + Send),
+) -> Result<OrbitalSet> {
     if let Some(e) = estimate::check(molecule, method, memory)? {
         announce(&e);
     }
@@ -87,5 +113,12 @@ pub fn orbitals_within(
         Method::OneElectron { basis } => one_electron::solve(molecule, basis),
         Method::ExtendedHuckel(options) => huckel::solve(molecule, options),
         Method::Given(set) => Ok((**set).clone()),
+        Method::HartreeFock { basis, options } => {
+            let options = scf::ScfOptions {
+                memory,
+                ..options.clone()
+            };
+            scf::solve(molecule, basis, &options, progress)
+        }
     }
 }

@@ -12,6 +12,7 @@ pub mod huckel_params;
 mod method;
 pub mod one_electron;
 pub mod orbitals;
+pub mod scf;
 
-pub use method::{Method, MethodKind, orbitals_for, orbitals_within};
+pub use method::{Method, MethodKind, orbitals_for, orbitals_reporting, orbitals_within};
 pub use orbitals::{Caveat, Orbital, OrbitalSelector, OrbitalSet};

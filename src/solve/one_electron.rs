@@ -60,6 +60,7 @@ pub fn solve(molecule: &Molecule, basis: &Basis) -> Result<OrbitalSet> {
         notes,
         reference: None,
         degeneracy: tol,
+        spin: Default::default(),
     };
     canonicalise(&mut set);
     let shared = sharing_notes(&set);

@@ -16,15 +16,22 @@ pub enum Caveat {
     MinimalBasis,
     /// A semi-empirical method (extended Hückel).
     SemiEmpirical,
+    /// Hartree–Fock: no electron correlation; Koopmans orbital energies.
+    Uncorrelated,
 }
 
 impl Caveat {
-    pub const ALL: [Caveat; 2] = [Caveat::MinimalBasis, Caveat::SemiEmpirical];
+    pub const ALL: [Caveat; 3] = [
+        Caveat::MinimalBasis,
+        Caveat::SemiEmpirical,
+        Caveat::Uncorrelated,
+    ];
 
     pub fn text(self) -> &'static str {
         match self {
             Caveat::MinimalBasis => super::one_electron::MINIMAL_BASIS_CAVEAT,
             Caveat::SemiEmpirical => super::huckel::CAUTION,
+            Caveat::Uncorrelated => super::scf::CAUTION,
         }
     }
 
@@ -35,7 +42,7 @@ impl Caveat {
             Caveat::MinimalBasis => {
                 Some("Minimal basis: shapes and signs are qualitative; energies are upper bounds.")
             }
-            Caveat::SemiEmpirical => None,
+            Caveat::SemiEmpirical | Caveat::Uncorrelated => None,
         }
     }
 
@@ -82,9 +89,109 @@ pub struct OrbitalSet {
     /// Levels closer than this (hartree) form one degenerate set: 1e-6 of the unit
     /// the method reports its energies in (see `degenerate::tolerance`).
     pub degeneracy: f64,
+    /// What an unrestricted or self-consistent set carries besides its orbitals;
+    /// `Spin::default()` for the other methods.
+    pub spin: Spin,
+}
+
+/// Spin channels and self-consistent-field facts. In an unrestricted set
+/// `OrbitalSet::orbitals` are the alpha orbitals (occupations 0 or 1) and `beta`
+/// the beta ones; a restricted set has `beta = None` and occupations up to 2.
+#[derive(Debug, Clone, Default)]
+pub struct Spin {
+    pub beta: Option<Vec<Orbital>>,
+    /// 2S + 1, where the method or the file states it.
+    pub multiplicity: Option<u32>,
+    /// Total energy in hartree (electronic plus nuclear repulsion), where the
+    /// method or the file states it. Orbital energies never include E_nn.
+    pub total_energy: Option<f64>,
+    /// The deformation reference as orbitals: each spherical free atom's occupied
+    /// orbitals in the same basis, as (occupation, coefficients over the whole
+    /// basis). For self-consistent methods, whose reference is not diagonal.
+    pub free_atoms: Option<Vec<(f64, Vec<f64>)>>,
+    /// The run's report (energy parts, convergence, properties), when solved here.
+    pub scf: Option<Box<super::scf::ScfReport>>,
+    /// The channel that orbital fields, titles and tables pick (`--spin`).
+    pub shown: Channel,
+}
+
+/// Which spin channel of an unrestricted set a field or a table uses.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Channel {
+    #[default]
+    Alpha,
+    Beta,
+}
+
+impl std::str::FromStr for Channel {
+    type Err = String;
+    fn from_str(s: &str) -> std::result::Result<Self, String> {
+        match s.trim().to_ascii_lowercase().as_str() {
+            "alpha" | "a" => Ok(Channel::Alpha),
+            "beta" | "b" => Ok(Channel::Beta),
+            _ => Err(format!("unknown spin {s:?}: use alpha or beta")),
+        }
+    }
+}
+
+impl Channel {
+    pub fn name(self) -> &'static str {
+        match self {
+            Channel::Alpha => "alpha",
+            Channel::Beta => "beta",
+        }
+    }
 }
 
 impl OrbitalSet {
+    /// Whether the set has separate alpha and beta orbitals.
+    pub fn is_unrestricted(&self) -> bool {
+        self.spin.beta.is_some()
+    }
+
+    /// Makes orbital fields and titles use channel `c`; beta needs an unrestricted set.
+    pub fn show(&mut self, c: Channel) -> Result<()> {
+        if c == Channel::Beta && !self.is_unrestricted() {
+            return Err(Error::input(format!(
+                "--spin beta needs unrestricted orbitals; {} has one set for both spins",
+                self.method
+            ))
+            .with_hint("solve with --method uhf, or leave out --spin"));
+        }
+        self.spin.shown = c;
+        Ok(())
+    }
+
+    /// The orbitals that orbital fields pick: those of the `shown` channel.
+    pub fn shown(&self) -> &[Orbital] {
+        self.channel(self.spin.shown)
+    }
+
+    /// "beta orbital" or "orbital": how titles name an orbital of the shown channel.
+    pub fn orbital_word(&self) -> &'static str {
+        match (self.is_unrestricted(), self.spin.shown) {
+            (false, _) => "orbital",
+            (true, Channel::Alpha) => "alpha orbital",
+            (true, Channel::Beta) => "beta orbital",
+        }
+    }
+
+    /// The orbitals of one channel: a restricted set has only one, whatever is asked.
+    pub fn channel(&self, c: Channel) -> &[Orbital] {
+        match (c, &self.spin.beta) {
+            (Channel::Beta, Some(b)) => b,
+            _ => &self.orbitals,
+        }
+    }
+
+    /// (occupation, orbital) of every occupied orbital of both channels.
+    pub fn occupied(&self) -> impl Iterator<Item = &Orbital> {
+        self.orbitals
+            .iter()
+            .chain(self.spin.beta.iter().flatten())
+            .filter(|o| o.occupation != 0.0)
+    }
+
     /// Every statement to print with the numbers: the caveats' text, then the notes.
     pub fn statements(&self) -> Vec<String> {
         self.caveats
@@ -101,13 +208,18 @@ impl OrbitalSet {
     /// Mulliken gross populations of one orbital per basis function,
     /// q_μ = c_μ Σ_ν S_μν c_ν; they sum to cᵀSc (1 for a normalised orbital).
     pub fn gross_populations(&self, index: usize) -> Result<Vec<f64>> {
+        self.populations(&self.shown()[index].coefficients)
+    }
+
+    /// Mulliken gross populations of any coefficient vector (see `gross_populations`).
+    pub fn populations(&self, c: &[f64]) -> Result<Vec<f64>> {
         let s = self.overlap.as_ref().ok_or_else(|| {
             Error::input(
                 "Mulliken populations need the overlap matrix, which lobecast computes for Gaussian \
                  functions and for 1s Slater functions of equal exponent",
             )
         })?;
-        let c = &self.orbitals[index].coefficients;
+
         Ok((0..c.len())
             .map(|m| c[m] * (0..c.len()).map(|n| s[(m, n)] * c[n]).sum::<f64>())
             .collect())
@@ -119,19 +231,28 @@ impl OrbitalSet {
     /// gross population summed over the occupied orbitals. Needs the overlap and
     /// the free-atom reference.
     pub fn mulliken_charges(&self) -> Option<Vec<f64>> {
-        let reference = self.reference.as_ref()?;
-        self.overlap.as_ref()?;
+        let s = self.overlap.as_ref()?;
         let mut q = vec![0.0; self.molecule.atoms.len()];
         let atoms: Vec<usize> = self.basis.function_labels().iter().map(|l| l.0).collect();
-        for (m, &a) in atoms.iter().enumerate() {
-            q[a] += reference[m];
-        }
-        for (i, o) in self.orbitals.iter().enumerate() {
-            if o.occupation > 0.0 {
-                let pops = self.gross_populations(i).ok()?;
-                for (m, p) in pops.iter().enumerate() {
-                    q[atoms[m]] -= o.occupation * p;
+        match (&self.reference, &self.spin.free_atoms) {
+            (Some(reference), _) => {
+                for (m, &a) in atoms.iter().enumerate() {
+                    q[a] += reference[m];
                 }
+            }
+            // All-electron: the free atoms hold their nuclear charge in electrons.
+            (None, Some(_)) => {
+                for (a, atom) in self.molecule.atoms.iter().enumerate() {
+                    q[a] = atom.charge();
+                }
+            }
+            (None, None) => return None,
+        }
+        for o in self.occupied() {
+            let c = &o.coefficients;
+            for (m, &a) in atoms.iter().enumerate() {
+                let sc: f64 = (0..c.len()).map(|n| s[(m, n)] * c[n]).sum();
+                q[a] -= o.occupation * c[m] * sc;
             }
         }
         Some(q)

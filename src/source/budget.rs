@@ -41,7 +41,7 @@ pub fn work_per_point(source: &Source, fields: &[Field]) -> f64 {
                 .map(|f| match f {
                     Field::Orbital(_) | Field::OrbitalDensity(_) => nbf,
                     Field::OrbitalDeformation(_) => 2.0 * nbf,
-                    Field::Density => occupied * nbf,
+                    Field::Density | Field::SpinDensity => occupied * nbf,
                     Field::Deformation => (occupied + 1.0) * nbf,
                     Field::Stored(_) => 0.0,
                 })

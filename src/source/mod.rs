@@ -112,7 +112,10 @@ impl Source {
         match ext.as_str() {
             "toml" | "json" | "xyz" => {
                 let m = model::load_with(path, options)?;
-                let set = crate::solve::orbitals_within(&m.molecule, &m.method, memory, &mut |_| {})?;
+                let mut set = crate::solve::orbitals_within(&m.molecule, &m.method, memory, &mut |_| {})?;
+                if let Some(c) = options.spin {
+                    set.show(c)?;
+                }
                 Ok(Source::Orbitals { set, inputs: m.inputs })
             }
             "cube" | "gz" => {
@@ -298,7 +301,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
     // parameters are in eV); other methods give hartree with eV beside it.
     let in_ev = is_extended_huckel(set);
     let energy = |n: usize| {
-        let e = set.orbitals[n - 1].energy;
+        let e = set.shown()[n - 1].energy;
         if in_ev {
             format!("E = {} eV", minus(format!("{:.2}", hartree_to_ev(e))))
         } else {
@@ -310,7 +313,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
         }
     };
     let short_energy = |n: usize| {
-        let e = set.orbitals[n - 1].energy;
+        let e = set.shown()[n - 1].energy;
         if in_ev {
             format!("{} eV", minus(format!("{:.2}", hartree_to_ev(e))))
         } else {
@@ -322,8 +325,8 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
         .checked_sub(1)
         .and_then(|i| crate::solve::degenerate::set_of(set, i))
     {
-        Some(r) => format!("orbital {n} (one of {} degenerate)", r.len()),
-        None => format!("orbital {n}"),
+        Some(r) => format!("{} {n} (one of {} degenerate)", set.orbital_word(), r.len()),
+        None => format!("{} {n}", set.orbital_word()),
     };
     let (heading, quantity, plain) = match field {
         Field::Orbital(_) => (
@@ -342,9 +345,18 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
             format!("orbital deformation density {n}"),
         ),
         Field::Deformation => (
-            "deformation density (valence, against neutral spherical atoms)".to_string(),
+            if set.spin.free_atoms.is_some() {
+                "deformation density (against spherical free atoms in the same basis)".to_string()
+            } else {
+                "deformation density (valence, against neutral spherical atoms)".to_string()
+            },
             "Δρ".to_string(),
             "deformation density".to_string(),
+        ),
+        Field::SpinDensity => (
+            "spin density ρ_α − ρ_β".to_string(),
+            "ρ_{α} − ρ_{β}".to_string(),
+            "spin density".to_string(),
         ),
         Field::Density | Field::Stored(_) => (
             "electron density".to_string(),
@@ -357,7 +369,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
         _ => "e bohr^{−3}",
     };
     let short = match field {
-        Field::Density | Field::Deformation => quantity.clone(),
+        Field::Density | Field::Deformation | Field::SpinDensity => quantity.clone(),
         _ => format!("{quantity}, E_{{{n}}} = {}", short_energy(n)),
     };
     let family = match field {
@@ -365,6 +377,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
         Field::OrbitalDensity(_) => "|ψ|^{2}",
         Field::OrbitalDeformation(_) | Field::Deformation => "Δρ",
         Field::Density | Field::Stored(_) => "ρ",
+        Field::SpinDensity => "ρ_{α} − ρ_{β}",
     };
     Ok(FieldInfo {
         heading,

@@ -1,20 +1,29 @@
-//! The orbital file (JSON, version 1; schema in the README, "The orbital file"): the
-//! neutral way to bring orbitals in from another program and take them out. Reading
-//! is strict: every error names the field at fault.
+//! The orbital file (JSON, versions 1 and 2; schema in the README, "The orbital
+//! file"): the neutral way to bring orbitals in from another program and take them
+//! out. Reading is strict: every error names the field at fault. Version 2 adds
+//! spin channels, the charge, multiplicity, nuclear repulsion and total energy, and
+//! fixes orbital energies to be eigenvalues; lobecast writes version 2.
 
 use std::path::Path;
 
 use serde::{Deserialize, Serialize};
 
-use crate::basis::{Angular, Basis, GaussianShell, Shell, SlaterShell};
+use crate::basis::{Basis, Shell};
 use crate::chem::units::{BOHR_IN_ANGSTROM, HARTREE_IN_EV};
 use crate::chem::{Atom, Molecule, elements};
 use crate::error::{Error, Result};
 use crate::solve::MethodKind;
 use crate::solve::orbitals::{Orbital, OrbitalSet};
 
+mod basis;
+mod write;
+
+use basis::basis_shells;
+pub use write::to_json;
+
 pub const FORMAT: &str = "lobecast-orbitals";
-pub const VERSION: u32 = 1;
+/// The version lobecast writes; it reads 1 and 2.
+pub const VERSION: u32 = 2;
 
 /// The largest inferred charge a title shows (common practice: molecular ions in
 /// reports rarely carry more than ±3).
@@ -38,9 +47,26 @@ struct Doc {
     energy_unit: String,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     method: Option<String>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    charge: Option<i32>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    multiplicity: Option<u32>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    nuclear_repulsion: Option<f64>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    total_energy: Option<f64>,
     atoms: Vec<AtomEntry>,
     basis: Vec<BasisEntry>,
-    orbitals: Vec<OrbitalEntry>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    orbitals: Option<Vec<OrbitalEntry>>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    orbitals_alpha: Option<Vec<OrbitalEntry>>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    orbitals_beta: Option<Vec<OrbitalEntry>>,
+    /// Numbers reported with the orbitals (Mulliken charges, dipole, ⟨S²⟩); written
+    /// for the reader's information, not read back.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    properties: Option<serde_json::Value>,
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     notes: Vec<String>,
     /// Free-atom valence occupation of every basis function, for valence-only sets
@@ -108,9 +134,10 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     let (length, energy) = units(&doc).map_err(|(f, m)| bad(f, m))?;
     let atoms = read_atoms(&doc.atoms, length).map_err(|(f, m)| bad(f, m))?;
     elements_check(&atoms).map_err(|e| e.context(name))?;
+    let (list, beta_list) = channels(&doc).map_err(|(f, m)| bad(f, m))?;
     let nbf = doc.basis.len();
-    let estimate =
-        8.0 * (2.0 * (nbf as f64).powi(2) + 2.0 * (doc.orbitals.len() as f64) * nbf as f64);
+    let count = list.len() + beta_list.map_or(0, |b| b.len());
+    let estimate = 8.0 * (2.0 * (nbf as f64).powi(2) + 2.0 * (count as f64) * nbf as f64);
     if nbf > MAX_BASIS_FUNCTIONS {
         return Err(bad(
             "basis".into(),
@@ -125,15 +152,16 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         crate::budget::DEFAULT_MEMORY,
         &format!("{name}: the overlap matrix of {nbf} functions and the orbitals"),
     )?;
-    if doc.orbitals.len() > nbf {
-        return Err(bad(
-            "orbitals".into(),
-            format!(
-                "{} orbitals, but a basis of {nbf} functions holds at most {nbf} independent orbitals ({} electrons, 2 per function)",
-                doc.orbitals.len(),
-                2 * nbf
-            ),
-        ));
+    for (field, l) in [(list_name(&doc), Some(list)), ("orbitals_beta", beta_list)] {
+        if let Some(l) = l.filter(|l| l.len() > nbf) {
+            return Err(bad(
+                field.into(),
+                format!(
+                    "{} orbitals, but a basis of {nbf} functions holds at most {nbf} independent orbitals",
+                    l.len()
+                ),
+            ));
+        }
     }
     let shells = basis_shells(&doc.basis, &atoms, length).map_err(|(f, m)| bad(f, m))?;
     let basis = Basis {
@@ -141,8 +169,18 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         shells,
     };
     let nbf = basis.len();
-    let mut orbitals = read_orbitals(&doc.orbitals, nbf, energy).map_err(|(f, m)| bad(f, m))?;
-    let electrons: f64 = orbitals.iter().map(|o| o.occupation).sum();
+    let most = if beta_list.is_some() { 1.0 } else { 2.0 };
+    let mut orbitals =
+        read_orbitals(list, nbf, energy, most, list_name(&doc)).map_err(|(f, m)| bad(f, m))?;
+    let mut beta = beta_list
+        .map(|b| read_orbitals(b, nbf, energy, 1.0, "orbitals_beta"))
+        .transpose()
+        .map_err(|(f, m)| bad(f, m))?;
+    let electrons: f64 = orbitals
+        .iter()
+        .chain(beta.iter().flatten())
+        .map(|o| o.occupation)
+        .sum();
     let reference = doc.reference_occupations.clone();
     if let Some(r) = &reference {
         if r.len() != basis.len() || r.iter().any(|v| !(v.is_finite() && *v >= 0.0)) {
@@ -167,7 +205,18 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     // always means a file of valence or active orbitals only, not a highly charged ion.
     let inferred = (nuclear - electrons).round();
     let whole = (electrons - electrons.round()).abs() <= 1e-6;
-    let plausible = inferred.abs() <= MAX_SHOWN_CHARGE;
+    // Version 2 may state the charge: it must agree with the occupations.
+    if let Some(q) = doc.charge {
+        if !whole || (f64::from(q) - (nuclear - electrons)).abs() > 1e-6 {
+            return Err(bad(
+                "charge".into(),
+                format!(
+                    "{q} disagrees with the occupations, which hold {electrons} electrons against a nuclear charge of {nuclear}"
+                ),
+            ));
+        }
+    }
+    let plausible = doc.charge.is_some() || inferred.abs() <= MAX_SHOWN_CHARGE;
     let mut molecule = Molecule::new(atoms, inferred as i32).map_err(|e| e.context(name))?;
     molecule.charge_known = whole && plausible;
     // Our own caveats come back as data; other notes stay text.
@@ -204,9 +253,27 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             "note: {name}: lobecast has no overlap integrals for this basis (it mixes Slater and Gaussian functions, or has Slater functions beyond s and p), so the orbitals' normalisation is not checked"
         ),
     }
-    if orbitals.windows(2).any(|w| w[1].energy < w[0].energy) {
-        orbitals.sort_by(|a, b| a.energy.total_cmp(&b.energy));
-        notes.push("the orbitals were renumbered in increasing energy".into());
+    for list in std::iter::once(&mut orbitals).chain(beta.iter_mut()) {
+        if list.windows(2).any(|w| w[1].energy < w[0].energy) {
+            list.sort_by(|a, b| a.energy.total_cmp(&b.energy));
+            notes.push("the orbitals were renumbered in increasing energy".into());
+        }
+    }
+    if let Some(m) = doc.multiplicity {
+        if m == 0 || m > 1000 {
+            return Err(bad(
+                "multiplicity".into(),
+                format!("must be 1 to 1000, found {m}"),
+            ));
+        }
+    }
+    for (field, v) in [
+        ("total_energy", doc.total_energy),
+        ("nuclear_repulsion", doc.nuclear_repulsion),
+    ] {
+        if v.is_some_and(|v| !v.is_finite()) {
+            return Err(bad(field.into(), "not a finite number".into()));
+        }
     }
     let method = doc.method.unwrap_or_else(|| format!("orbital file {name}"));
     // The file's method text, read once here: lobecast's own extended-Hückel files
@@ -230,6 +297,12 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         notes,
         reference,
         degeneracy: crate::solve::degenerate::tolerance(in_ev),
+        spin: crate::solve::orbitals::Spin {
+            beta,
+            multiplicity: doc.multiplicity,
+            total_energy: doc.total_energy.map(|e| e * energy),
+            ..Default::default()
+        },
     };
     crate::solve::degenerate::canonicalise(&mut set);
     Ok(set)
@@ -247,14 +320,31 @@ fn units(doc: &Doc) -> FieldResult<(f64, f64)> {
             format!("expected {FORMAT:?}, found {:?}", doc.format),
         ));
     }
-    if doc.version != VERSION {
+    if !(1..=VERSION).contains(&doc.version) {
         return Err((
             "version".into(),
             format!(
-                "this lobecast reads version {VERSION}, found {}",
+                "this lobecast reads versions 1 and {VERSION}, found {}",
                 doc.version
             ),
         ));
+    }
+    if doc.version == 1 {
+        let v2 = [
+            ("charge", doc.charge.is_some()),
+            ("multiplicity", doc.multiplicity.is_some()),
+            ("nuclear_repulsion", doc.nuclear_repulsion.is_some()),
+            ("total_energy", doc.total_energy.is_some()),
+            ("orbitals_alpha", doc.orbitals_alpha.is_some()),
+            ("orbitals_beta", doc.orbitals_beta.is_some()),
+            ("properties", doc.properties.is_some()),
+        ];
+        if let Some((field, _)) = v2.iter().find(|(_, present)| *present) {
+            return Err((
+                (*field).into(),
+                "is a version 2 field; this file says version 1".into(),
+            ));
+        }
     }
     let length = match doc.length_unit.as_str() {
         "bohr" => 1.0,
@@ -311,12 +401,52 @@ fn read_atoms(entries: &[AtomEntry], length: f64) -> FieldResult<Vec<Atom>> {
 
 /// The orbitals, each checked (length, finite, occupation, not vanishing), energies
 /// in hartree; and the occupations checked against what `nbf` functions can hold.
-fn read_orbitals(entries: &[OrbitalEntry], nbf: usize, energy: f64) -> FieldResult<Vec<Orbital>> {
+/// The orbital lists: `orbitals` (restricted), or `orbitals_alpha` and
+/// `orbitals_beta` (unrestricted, version 2), never both kinds.
+fn channels(doc: &Doc) -> FieldResult<(&[OrbitalEntry], Option<&[OrbitalEntry]>)> {
+    match (&doc.orbitals, &doc.orbitals_alpha, &doc.orbitals_beta) {
+        (Some(o), None, None) => Ok((o, None)),
+        (None, Some(a), Some(b)) => Ok((a, Some(b))),
+        (None, None, None) => Err((
+            "orbitals".into(),
+            "missing: the file holds no orbitals".into(),
+        )),
+        (Some(_), _, _) => Err((
+            "orbitals".into(),
+            "give either orbitals (restricted) or orbitals_alpha and orbitals_beta, not both"
+                .into(),
+        )),
+        (None, Some(_), None) => Err((
+            "orbitals_beta".into(),
+            "missing: orbitals_alpha needs orbitals_beta".into(),
+        )),
+        (None, None, Some(_)) => Err((
+            "orbitals_alpha".into(),
+            "missing: orbitals_beta needs orbitals_alpha".into(),
+        )),
+    }
+}
+
+fn list_name(doc: &Doc) -> &'static str {
+    if doc.orbitals.is_some() {
+        "orbitals"
+    } else {
+        "orbitals_alpha"
+    }
+}
+
+fn read_orbitals(
+    entries: &[OrbitalEntry],
+    nbf: usize,
+    energy: f64,
+    most: f64,
+    list: &str,
+) -> FieldResult<Vec<Orbital>> {
     let mut orbitals = Vec::with_capacity(entries.len());
     for (i, o) in entries.iter().enumerate() {
         if o.coefficients.len() != nbf {
             return Err((
-                format!("orbitals[{i}].coefficients"),
+                format!("{list}[{i}].coefficients"),
                 format!(
                     "has {} entries but the basis has {nbf} functions",
                     o.coefficients.len()
@@ -325,19 +455,19 @@ fn read_orbitals(entries: &[OrbitalEntry], nbf: usize, energy: f64) -> FieldResu
         }
         if !o.energy.is_finite() || o.coefficients.iter().any(|c| !c.is_finite()) {
             return Err((
-                format!("orbitals[{i}]"),
+                format!("{list}[{i}]"),
                 "energy and coefficients must be finite numbers".into(),
             ));
         }
-        if !(0.0..=2.0).contains(&o.occupation) {
+        if !(0.0..=most).contains(&o.occupation) {
             return Err((
-                format!("orbitals[{i}].occupation"),
-                format!("must be between 0 and 2, found {}", o.occupation),
+                format!("{list}[{i}].occupation"),
+                format!("must be between 0 and {most}, found {}", o.occupation),
             ));
         }
         if o.coefficients.iter().all(|&c| c == 0.0) {
             return Err((
-                format!("orbitals[{i}].coefficients"),
+                format!("{list}[{i}].coefficients"),
                 "all zero: an orbital must not vanish everywhere".into(),
             ));
         }
@@ -348,16 +478,16 @@ fn read_orbitals(entries: &[OrbitalEntry], nbf: usize, energy: f64) -> FieldResu
         });
     }
     if orbitals.is_empty() {
-        return Err(("orbitals".into(), "the file holds no orbitals".into()));
+        return Err((list.into(), "the file holds no orbitals".into()));
     }
     let electrons: f64 = orbitals.iter().map(|o| o.occupation).sum();
     let occupied = orbitals.iter().filter(|o| o.occupation > 0.0).count();
-    if occupied > nbf || electrons > 2.0 * nbf as f64 + 1e-9 {
+    if occupied > nbf || electrons > most * nbf as f64 + 1e-9 {
         return Err((
-            "orbitals".into(),
+            list.into(),
             format!(
-                "{occupied} occupied orbitals with {electrons} electrons, but a basis of {nbf} functions holds at most {nbf} orbitals and {} electrons (2 per function)",
-                2 * nbf
+                "{occupied} occupied orbitals with {electrons} electrons, but a basis of {nbf} functions holds at most {nbf} orbitals and {} electrons ({most} per function)",
+                most * nbf as f64
             ),
         ));
     }
@@ -418,182 +548,4 @@ fn strip_position(msg: &str) -> String {
     msg.rsplit_once(" at line ")
         .map_or(msg, |(m, _)| m)
         .to_string()
-}
-
-/// Builds shells from per-function entries, merging consecutive functions that share
-/// centre, kind, l and radial part, so grid evaluation can work shell by shell.
-fn basis_shells(
-    entries: &[BasisEntry],
-    atoms: &[Atom],
-    length: f64,
-) -> std::result::Result<Vec<Shell>, (String, String)> {
-    let mut shells: Vec<Shell> = Vec::new();
-    for (i, e) in entries.iter().enumerate() {
-        let field = |f: &str| format!("basis[{i}].{f}");
-        let atom_of = |a: usize| {
-            atoms.get(a).ok_or_else(|| {
-                (
-                    field("atom"),
-                    format!(
-                        "no atom {a}: the file lists {} atoms (numbered from 0)",
-                        atoms.len()
-                    ),
-                )
-            })
-        };
-        match e {
-            BasisEntry::Slater {
-                atom,
-                n,
-                l,
-                m,
-                zeta,
-            } => {
-                let c = atom_of(*atom)?.position;
-                let zeta = zeta / length;
-                if let Some(Shell::Slater(s)) = shells.last_mut() {
-                    if s.atom == *atom
-                        && s.n == *n
-                        && s.l == *l
-                        && s.zeta == zeta
-                        && !s.ms.contains(m)
-                    {
-                        let mut ms = s.ms.clone();
-                        ms.push(*m);
-                        *s = SlaterShell::new(*atom, c, *n, *l, zeta, ms)
-                            .map_err(|e| (format!("basis[{i}]"), e.message))?;
-                        continue;
-                    }
-                }
-                let s = SlaterShell::new(*atom, c, *n, *l, zeta, vec![*m])
-                    .map_err(|e| (format!("basis[{i}]"), e.message))?;
-                shells.push(Shell::Slater(s));
-            }
-            BasisEntry::Gaussian {
-                atom,
-                powers,
-                l,
-                m,
-                primitives,
-            } => {
-                let c = atom_of(*atom)?.position;
-                let (lv, ang) = match (powers, l, m) {
-                    (Some(p), None, None) => (p.iter().sum::<u32>(), Angular::Cartesian(*p)),
-                    (None, Some(l), Some(m)) => (*l, Angular::Pure(*m)),
-                    _ => {
-                        return Err((
-                            format!("basis[{i}]"),
-                            "a gaussian needs either \"powers\" or both \"l\" and \"m\"".into(),
-                        ));
-                    }
-                };
-                let prims: Vec<(f64, f64)> = primitives
-                    .iter()
-                    .map(|p| (p[0] / (length * length), p[1]))
-                    .collect();
-                if let Some((k, p)) = prims
-                    .iter()
-                    .enumerate()
-                    .find(|(_, p)| !(p.0.is_finite() && p.0 > 0.0))
-                {
-                    return Err((
-                        format!("basis[{i}].primitives[{k}]"),
-                        format!("exponent must be positive, found {}", p.0),
-                    ));
-                }
-                if let Some(Shell::Gaussian(g)) = shells.last_mut() {
-                    let same_kind = matches!(
-                        (g.functions[0], ang),
-                        (Angular::Cartesian(_), Angular::Cartesian(_))
-                            | (Angular::Pure(_), Angular::Pure(_))
-                    );
-                    if g.atom == *atom
-                        && g.l == lv
-                        && g.primitives == prims
-                        && same_kind
-                        && !g.functions.contains(&ang)
-                    {
-                        let mut fs = g.functions.clone();
-                        fs.push(ang);
-                        *g = GaussianShell::new(*atom, c, lv, prims, fs)
-                            .map_err(|e| (format!("basis[{i}]"), e.message))?;
-                        continue;
-                    }
-                }
-                let g = GaussianShell::new(*atom, c, lv, prims, vec![ang])
-                    .map_err(|e| (format!("basis[{i}]"), e.message))?;
-                shells.push(Shell::Gaussian(g));
-            }
-        }
-    }
-    if shells.is_empty() {
-        return Err(("basis".into(), "the file lists no basis functions".into()));
-    }
-    Ok(shells)
-}
-
-/// Writes an orbital set as an orbital file (bohr, hartree).
-pub fn to_json(set: &OrbitalSet) -> String {
-    let atoms = set
-        .molecule
-        .atoms
-        .iter()
-        .map(|a| AtomEntry {
-            element: a.element.symbol.into(),
-            atomic_number: a.element.atomic_number,
-            position: a.position,
-        })
-        .collect();
-    let mut basis = Vec::with_capacity(set.basis.len());
-    for shell in &set.basis.shells {
-        match shell {
-            Shell::Slater(s) => basis.extend(s.ms.iter().map(|&m| BasisEntry::Slater {
-                atom: s.atom,
-                n: s.n,
-                l: s.l,
-                m,
-                zeta: s.zeta,
-            })),
-            Shell::Gaussian(g) => basis.extend(g.functions.iter().map(|f| {
-                let primitives = g.primitives.iter().map(|&(a, c)| [a, c]).collect();
-                match *f {
-                    Angular::Cartesian(p) => BasisEntry::Gaussian {
-                        atom: g.atom,
-                        powers: Some(p),
-                        l: None,
-                        m: None,
-                        primitives,
-                    },
-                    Angular::Pure(m) => BasisEntry::Gaussian {
-                        atom: g.atom,
-                        powers: None,
-                        l: Some(g.l),
-                        m: Some(m),
-                        primitives,
-                    },
-                }
-            })),
-        }
-    }
-    let doc = Doc {
-        format: FORMAT.into(),
-        version: VERSION,
-        length_unit: "bohr".into(),
-        energy_unit: "hartree".into(),
-        method: Some(set.method.clone()),
-        atoms,
-        basis,
-        orbitals: set
-            .orbitals
-            .iter()
-            .map(|o| OrbitalEntry {
-                energy: o.energy,
-                occupation: o.occupation,
-                coefficients: o.coefficients.clone(),
-            })
-            .collect(),
-        notes: set.statements(),
-        reference_occupations: set.reference.clone(),
-    };
-    serde_json::to_string_pretty(&doc).expect("orbital sets serialise") + "\n"
 }

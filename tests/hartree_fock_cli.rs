@@ -1,0 +1,213 @@
+//! `solve`, `volume` with `--method rhf|uhf`: what a user sees, and every refusal
+//! (one `error:` line, exit 2; non-convergence exit 1), with no file left behind.
+
+mod common;
+
+use common::{assert_input_error, ok, run, write_file};
+
+/// Water near its experimental geometry (common practice), ångström.
+const WATER: &str = "3\nwater\nO 0.0 0.0 0.0\nH 0.757 0.0 0.586\nH -0.757 0.0 0.586\n";
+
+fn dir() -> tempfile::TempDir {
+    tempfile::tempdir().unwrap()
+}
+
+#[test]
+fn rhf_prints_energy_parts_caution_and_writes_version_2() {
+    let d = dir();
+    write_file(d.path(), "w.xyz", WATER);
+    let out = ok(
+        d.path(),
+        &[
+            "solve", "w.xyz", "--method", "rhf", "--basis", "sto-3g", "--json", "w.json",
+        ],
+    );
+    for needle in [
+        "nuclear repulsion",
+        "one-electron",
+        "two-electron",
+        "total",
+        "SCF converged",
+        "dipole moment",
+        "Mulliken charges",
+        "HOMO",
+        "LUMO",
+        "neglects electron correlation",
+    ] {
+        assert!(out.contains(needle), "{needle:?} missing from\n{out}");
+    }
+    let v: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(d.path().join("w.json")).unwrap()).unwrap();
+    assert_eq!(v["version"], 2);
+    let e = v["total_energy"].as_f64().unwrap();
+    let enn = v["nuclear_repulsion"].as_f64().unwrap();
+    // STO-3G water near equilibrium lies near −74.96 hartree (from memory; the
+    // PySCF comparison in .ci checks it to 1e-8): a loose sanity bound here.
+    assert!((-75.1..-74.8).contains(&e), "{e}");
+    assert!((enn - 9.2).abs() < 0.2, "{enn}");
+    // Orbital energies are eigenvalues: the lowest is the O 1s, near −20.2 hartree.
+    let e1 = v["orbitals"][0]["energy"].as_f64().unwrap();
+    assert!((-20.6..-20.0).contains(&e1), "{e1}");
+    // The file reads back, and says its energies are the file's.
+    let back = ok(d.path(), &["solve", "w.json"]);
+    assert!(back.contains("as the file states them"), "{back}");
+}
+
+#[test]
+fn uhf_gives_both_channels_and_spin_density() {
+    let d = dir();
+    write_file(d.path(), "w.xyz", WATER);
+    let out = ok(
+        d.path(),
+        &[
+            "solve", "w.xyz", "--method", "uhf", "--basis", "sto-3g", "--charge", "1", "--json",
+            "c.json",
+        ],
+    );
+    assert!(
+        out.contains("alpha orbitals") && out.contains("beta orbitals"),
+        "{out}"
+    );
+    assert!(out.contains("<S^2>"), "{out}");
+    let v: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(d.path().join("c.json")).unwrap()).unwrap();
+    assert_eq!(v["multiplicity"], 2);
+    assert_eq!(v["charge"], 1);
+    assert!(v["orbitals_alpha"].is_array() && v["orbitals_beta"].is_array());
+    ok(
+        d.path(),
+        &[
+            "volume",
+            "c.json",
+            "--field",
+            "spin-density",
+            "--field",
+            "orbital:homo",
+            "--spin",
+            "beta",
+            "--spacing",
+            "0.5",
+            "--out",
+            "s.cube",
+        ],
+    );
+    let cube = std::fs::read_to_string(d.path().join("s.cube")).unwrap();
+    assert!(
+        cube.lines().take(2).any(|l| l.contains("beta")),
+        "channel named in the comment"
+    );
+}
+
+#[test]
+fn bad_input_is_refused_before_any_file() {
+    let d = dir();
+    write_file(d.path(), "w.xyz", WATER);
+    write_file(d.path(), "k.xyz", "1\npotassium\nK 0 0 0\n");
+    write_file(d.path(), "two.xyz", "2\nsame place\nH 0 0 0\nH 0 0 0.01\n");
+    let keep = ["k.xyz", "two.xyz", "w.xyz"];
+    let cases: [(&[&str], &str); 8] = [
+        (
+            &["--method", "rhf", "--basis", "6-31q"],
+            "unknown basis set",
+        ),
+        (&["--method", "rhf"], "needs --basis"),
+        (
+            &["--method", "rhf", "--basis", "sto-3g", "--charge", "1"],
+            "closed shell",
+        ),
+        (
+            &[
+                "--method",
+                "uhf",
+                "--basis",
+                "sto-3g",
+                "--multiplicity",
+                "2",
+            ],
+            "impossible",
+        ),
+        (
+            &[
+                "--method",
+                "uhf",
+                "--basis",
+                "sto-3g",
+                "--multiplicity",
+                "0",
+            ],
+            "--multiplicity",
+        ),
+        (
+            &["--method", "uhf", "--basis", "sto-3g", "--charge", "10"],
+            "electrons",
+        ),
+        (
+            &[
+                "--method",
+                "rhf",
+                "--basis",
+                "sto-3g",
+                "--max-iterations",
+                "0",
+            ],
+            "--max-iterations",
+        ),
+        (
+            &["--method", "rhf", "--basis", "sto-3g", "--spin", "beta"],
+            "unrestricted",
+        ),
+    ];
+    for (flags, needle) in cases {
+        let mut args = vec!["volume", "w.xyz", "--field", "density", "--out", "x.cube"];
+        args.extend_from_slice(flags);
+        let out = run(d.path(), &args);
+        assert_input_error(d.path(), &out, needle, &keep);
+    }
+    let out = run(
+        d.path(),
+        &[
+            "solve", "k.xyz", "--method", "uhf", "--basis", "sto-3g", "--json", "k.json",
+        ],
+    );
+    assert_input_error(d.path(), &out, "no functions for K", &keep);
+    let out = run(
+        d.path(),
+        &[
+            "solve", "two.xyz", "--method", "rhf", "--basis", "sto-3g", "--json", "t.json",
+        ],
+    );
+    assert_input_error(d.path(), &out, "closer than 0.1 Å", &keep);
+}
+
+/// Running out of iterations is exit 1 with the last figures, and no file.
+#[test]
+fn non_convergence_is_exit_1_with_the_figures() {
+    let d = dir();
+    write_file(d.path(), "w.xyz", WATER);
+    let out = run(
+        d.path(),
+        &[
+            "solve",
+            "w.xyz",
+            "--method",
+            "rhf",
+            "--basis",
+            "sto-3g",
+            "--max-iterations",
+            "2",
+            "--json",
+            "w.json",
+        ],
+    );
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(1), "{err}");
+    assert!(
+        err.starts_with("error: the SCF did not converge in 2 iterations"),
+        "{err}"
+    );
+    assert!(
+        err.contains("ΔE") && err.contains("RMS commutator"),
+        "{err}"
+    );
+    assert!(!d.path().join("w.json").exists());
+}
