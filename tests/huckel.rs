@@ -25,7 +25,7 @@ fn example(name: &str) -> String {
 /// H2 with only 1s functions: the secular equation of a symmetric dimer gives
 /// (H11 ± K S H11)/(1 ± S) for Wolfsberg–Helmholz H12 = K S H11 (follows from the
 /// formula); S = e^(−ρ)(1 + ρ + ρ²/3), ρ = ζR (I. N. Levine, Quantum Chemistry,
-/// Sec. 13.5; from memory); ζ = 1.3, H11 = −13.6 eV (Hoffmann 1963; from memory).
+/// Sec. 13.5; from memory); ζ = 1.3 (later compilations; source to be confirmed), H11 = −13.6 eV (Hoffmann 1963; from memory).
 #[test]
 fn hydrogen_molecule_matches_the_closed_form() {
     let m = molecule("2\nH2\nH 0 0 0\nH 0 0 0.74\n", 0);

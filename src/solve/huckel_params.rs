@@ -4,8 +4,13 @@
 //!
 //! Sources (every value below is from memory, not re-checked against the printed
 //! tables; correct them here if a table disagrees):
-//! * H, C, N, O: R. Hoffmann, J. Chem. Phys. 39, 1397 (1963) (H_ii; exponents by
-//!   Slater's rules, with ζ(H) = 1.3).
+//! * C, and H_ii of H: R. Hoffmann, J. Chem. Phys. 39, 1397 (1963), which treats
+//!   hydrocarbons only (exponents by Slater's rules).
+//! * ζ(H) = 1.3: the value of later compilations; Hoffmann 1963 probably used a
+//!   different hydrogen exponent. From memory, source to be confirmed.
+//! * N, O: not in Hoffmann 1963 (hydrocarbons only); the values are those commonly
+//!   tabulated in compilations such as the one below. From memory, source to be
+//!   confirmed.
 //! * Li, Be, B, F, Na–Cl: the standard compilation of extended-Hückel parameters,
 //!   S. Alvarez, "Tables of Parameters for Extended Hückel Calculations",
 //!   Universitat de Barcelona (1993); exponents there mostly follow Slater's rules.
@@ -56,7 +61,7 @@ const fn sp(n: u32, zs: f64, hs: f64, zp: f64, hp: f64) -> Option<ElementParams>
 /// Built-in parameters by atomic number (sources in the module comment).
 pub fn builtin(z: u32) -> Option<ElementParams> {
     match z {
-        // Hoffmann 1963.
+        // H_ii: Hoffmann 1963; ζ = 1.3: later compilations (source to be confirmed).
         1 => Some(ElementParams {
             s: ShellParams {
                 n: 1,
@@ -69,8 +74,9 @@ pub fn builtin(z: u32) -> Option<ElementParams> {
         3 => sp(2, 0.650, -5.4, 0.650, -3.5),
         4 => sp(2, 0.975, -10.0, 0.975, -6.0),
         5 => sp(2, 1.300, -15.2, 1.300, -8.5),
-        // Hoffmann 1963.
+        // Hoffmann 1963 (hydrocarbons).
         6 => sp(2, 1.625, -21.4, 1.625, -11.4),
+        // Not in Hoffmann 1963: from memory, source to be confirmed.
         7 => sp(2, 1.950, -26.0, 1.950, -13.4),
         8 => sp(2, 2.275, -32.3, 2.275, -14.8),
         // Alvarez 1993 compilation.
