@@ -1,4 +1,4 @@
-"""Writes src/basis/data/{sto-3g,sto-6g,sto-ng}.json, so their provenance is reproducible.
+"""Writes src/basis/data/*.json (the named sets and sto-ng), so their provenance is reproducible.
 
 Why: lobecast embeds its basis data as plain JSON in its own simple format; this
 script is the one place that data comes from.
@@ -10,6 +10,18 @@ script is the one place that data comes from.
   J. A. Pople, J. Chem. Phys. 52, 2769 (1970) for Na-Ar (the references the
   package gives per element). Each sp shell becomes an s and a p shell with
   the same exponents.
+* 3-21g.json, 6-31g.json, 6-31g_st.json (6-31G*), 6-31g_st_st.json (6-31G**),
+  cc-pvdz.json: H-Ar, copied digit for digit from the same package, with the
+  references it gives per element. sp shells are split as above; each column
+  of a general contraction (several coefficient lists on one exponent list, as
+  in cc-pVDZ) becomes a shell of its own with every primitive kept, zero
+  coefficients included, exactly as the package gives them. Each file records
+  its d-function convention ("functions": "cartesian" or "pure") and where it
+  comes from: the package's function_type of the l >= 2 shells of H-Ar where
+  there are any, otherwise the package's metadata for the whole set (which
+  lists the function types of its heavier elements); either must agree with
+  the set's published convention (Pople sets Cartesian 6d, Dunning sets pure
+  5d), or the import stops.
 * sto-ng.json: zeta = 1 expansions of 1s, 2s, 2p, 3s, 3p, 3d with 1-6
   Gaussians, computed by tools/fit_sto_ng.py, and checked here against every
   published expansion the package carries (STO-2G ... STO-6G, 1s/2sp/3sp, H-Ar):
@@ -42,6 +54,10 @@ SYMBOLS = "H He Li Be B C N O F Ne Na Mg Al Si P S Cl Ar".split()
 def reference_text(key):
     r = bse.get_reference_data()[key]
     authors = ", ".join(r["authors"])
+    if r["_entry_type"] != "article":
+        # e.g. a program's manual, cited by the package for data no paper printed
+        authors = r["authors"][0] + (" et al." if len(r["authors"]) > 1 else "")
+        return f"{authors}, {r['title']}, {r.get('note', '')}".rstrip(", ")
     return f"{authors}, {r['journal']} {r['volume']}, {r['pages']} ({r['year']}), doi:{r['doi']}"
 
 
@@ -59,8 +75,50 @@ def split_shells(element):
     return out
 
 
+# The extended sets: our file name, the d-function convention the set was published
+# with (Pople sets: six Cartesian d; Dunning sets: five pure d; from memory, and
+# checked against what the package says), and a one-line description of ours.
+EXTENDED = {
+    "3-21g": ("3-21g", "cartesian", "split valence; core shells of 3 Gaussians, valence split 2 + 1"),
+    "6-31g": ("6-31g", "cartesian", "split valence; core shells of 6 Gaussians, valence split 3 + 1"),
+    "6-31g*": ("6-31g_st", "cartesian", "6-31G with one set of d functions on Li-Ar"),
+    "6-31g**": ("6-31g_st_st", "cartesian", "6-31G* with one set of p functions on H and He as well"),
+    "cc-pvdz": ("cc-pvdz", "pure", "correlation-consistent polarised valence double zeta, general contractions; p on H and He, d on Li-Ar"),
+}
+BSE_TYPES = {"gto_cartesian": "cartesian", "gto_spherical": "pure"}
+
+
+def convention(name, basis, published):
+    """("cartesian" | "pure", sentence saying where it comes from) for set `name`."""
+    types = {
+        sh["function_type"]
+        for el in basis["elements"].values()
+        for sh in el["electron_shells"]
+        if max(sh["angular_momentum"]) >= 2
+    }
+    if types:
+        assert len(types) == 1 and types <= set(BSE_TYPES), (name, types)
+        (t,) = types
+        found = BSE_TYPES[t]
+        where = f"basis-set-exchange marks every shell with l >= 2 of H-Ar {t!r}"
+    else:
+        meta = bse.get_metadata()[bse.misc.transform_basis_name(name)]["function_types"]
+        known = [BSE_TYPES[t] for t in meta if t in BSE_TYPES]
+        assert len(known) == 1, (name, meta)
+        found = known[0]
+        where = (
+            "this set has no shells with l >= 2 for H-Ar, so the choice changes nothing here; "
+            f"taken from basis-set-exchange's metadata for the whole set, function types {meta} "
+            "(from the d shells of its elements beyond Ar)"
+        )
+    assert found == published, (name, found, published)
+    return found, f"{where}; this agrees with the convention the set was published with"
+
+
 def named_set(name):
     basis = bse.get_basis(name, elements=list(ELEMENTS), header=False)
+    if name in EXTENDED:
+        return extended_set(name, basis)
     keys = sorted({k for el in basis["elements"].values() for r in el["references"] for k in r["reference_keys"]})
     elements = {}
     for z in ELEMENTS:
@@ -75,6 +133,41 @@ def named_set(name):
             f"imported by tools/import_bse.py; numbers equal to the printed digits."
         ),
         "conventions": "exponents in bohr^-2; coefficients multiply normalised primitives; each sp shell is split into an s and a p shell with the same exponents.",
+        "references": {k: reference_text(k) for k in keys},
+        "elements": elements,
+    }
+
+
+def extended_set(name, basis):
+    missing = [z for z in ELEMENTS if str(z) not in basis["elements"]]
+    assert not missing, (name, missing)
+    keys = sorted({k for el in basis["elements"].values() for r in el["references"] for k in r["reference_keys"]})
+    functions, where = convention(name, basis, EXTENDED[name][1])
+    elements = {}
+    for z in ELEMENTS:
+        el = basis["elements"][str(z)]
+        refs = [k for r in el["references"] for k in r["reference_keys"]]
+        elements[str(z)] = {"symbol": SYMBOLS[z - 1], "reference": refs, "shells": split_shells(el)}
+        counts = {"pure": 0, "cartesian": 0}
+        for sh in elements[str(z)]["shells"]:
+            counts["pure"] += 2 * sh["l"] + 1
+            counts["cartesian"] += (sh["l"] + 1) * (sh["l"] + 2) // 2
+        print(f"{name} {SYMBOLS[z - 1]:>2}: {len(elements[str(z)]['shells'])} shells, "
+              f"{counts['pure']} pure / {counts['cartesian']} Cartesian functions")
+    return {
+        "name": name,
+        "description": f"{basis['name']}, H-Ar: {EXTENDED[name][2]}.",
+        "source": (
+            f"basis-set-exchange {bse.version()} (PyPI), basis {basis['name']!r} version {basis['version']}; "
+            f"imported by tools/import_bse.py; numbers equal to the printed digits."
+        ),
+        "conventions": (
+            "exponents in bohr^-2; coefficients multiply normalised primitives; each sp shell is split into an s "
+            "and a p shell with the same exponents; each column of a general contraction is a shell of its own, "
+            "with every primitive as given (zero coefficients kept). "
+            f"Functions with l >= 2 are {functions} by default: {where}."
+        ),
+        "functions": functions,
         "references": {k: reference_text(k) for k in keys},
         "elements": elements,
     }
@@ -162,4 +255,6 @@ if __name__ == "__main__":
     DATA.mkdir(parents=True, exist_ok=True)
     write("sto-3g", named_set("sto-3g"))
     write("sto-6g", named_set("sto-6g"))
+    for set_name, (file_name, _, _) in EXTENDED.items():
+        write(file_name, named_set(set_name))
     write("sto-ng", sto_ng())

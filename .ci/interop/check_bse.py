@@ -1,24 +1,29 @@
-"""Compares lobecast's committed sto-3g and sto-6g tables with the basis-set-exchange package.
+"""Compares every named basis set lobecast embeds with the basis-set-exchange package.
 
-Why: src/basis/data/sto-{3,6}g.json were imported from basis-set-exchange by
-tools/import_bse.py; this check proves, in CI, that every exponent and
-coefficient for H-Ar still equals the package's printed digits (parsed to the
-same double), with the same shells in the same order (sp shells split into s
-and p). It prints one line per element and set and exits 1 on any difference.
+Why: the tables in src/basis/data/ that src/basis/named.rs embeds (sto-3g,
+sto-6g, 3-21g, 6-31g, 6-31g*, 6-31g**, cc-pvdz) were imported from
+basis-set-exchange by tools/import_bse.py; this check proves, in CI, that every
+exponent and coefficient for H-Ar still equals the package's printed digits
+(parsed to the same double), with the same shells and l in the same order (sp
+shells split into s and p, each column of a general contraction its own shell),
+and that each file's d-function convention ("functions") is the one the package
+gives. It prints one line per element and set and exits 1 on any difference.
 
 Uses only the installed package (its data ship inside it): no network access.
 
-    python .ci/interop/check_bse.py [--data src/basis/data]
+    python .ci/interop/check_bse.py [--data src/basis/data] [--named src/basis/named.rs]
 """
 
 import argparse
 import json
 import pathlib
+import re
 import sys
 
 import basis_set_exchange as bse
 
 SYMBOLS = "H He Li Be B C N O F Ne Na Mg Al Si P S Cl Ar".split()
+BSE_TYPES = {"gto_cartesian": "cartesian", "gto_spherical": "pure"}
 
 
 def reference_shells(name, z):
@@ -32,6 +37,39 @@ def reference_shells(name, z):
         for l, coefs in zip(ls, sh["coefficients"]):
             out.append((l, [(float(a), float(c)) for a, c in zip(sh["exponents"], coefs)]))
     return out
+
+
+def package_convention(name):
+    """"cartesian" | "pure" | None: the function type of the package's l >= 2 shells of
+    H-Ar, or, if it has none there, the one its metadata lists for the whole set."""
+    basis = bse.get_basis(name, elements=list(range(1, 19)), header=False)
+    types = {
+        sh["function_type"]
+        for el in basis["elements"].values()
+        for sh in el["electron_shells"]
+        if max(sh["angular_momentum"]) >= 2
+    }
+    if not types:
+        types = set(bse.get_metadata()[bse.misc.transform_basis_name(name)]["function_types"])
+    known = {BSE_TYPES[t] for t in types if t in BSE_TYPES}
+    return known.pop() if len(known) == 1 else None
+
+
+def check_convention(name, data):
+    """One line about the file's "functions" against the package; (ok, line)."""
+    has_high_l = any(sh["l"] >= 2 for el in data["elements"].values() for sh in el["shells"])
+    ours = data.get("functions")
+    if ours is None:
+        return not has_high_l, f"{name}: no functions recorded, " + (
+            "shells with l >= 2 present: FAILS" if has_high_l else "none needed (s and p shells only)")
+    theirs = package_convention(name)
+    ok = ours == theirs
+    return ok, f"{name}: functions = {ours!r}, package {theirs!r}: " + ("ok" if ok else "DIFFERS")
+
+
+def embedded_files(named_rs):
+    """The data files src/basis/named.rs embeds, so that none goes unchecked."""
+    return re.findall(r'include_str!\("data/([^"]+)"\)', named_rs.read_text())
 
 
 def compare(ours, theirs):
@@ -58,11 +96,23 @@ def main():
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     root = pathlib.Path(__file__).resolve().parents[2]
     parser.add_argument("--data", type=pathlib.Path, default=root / "src" / "basis" / "data")
+    parser.add_argument("--named", type=pathlib.Path, default=root / "src" / "basis" / "named.rs")
     args = parser.parse_args()
     print(f"basis-set-exchange {bse.version()}")
     failures = 0
-    for name in ("sto-3g", "sto-6g"):
-        table = json.loads((args.data / f"{name}.json").read_text())["elements"]
+    files = embedded_files(args.named)
+    if len(files) < 7:
+        print(f"FAILED: found only {files} embedded in {args.named}")
+        return 1
+    names = []
+    for file in files:
+        data = json.loads((args.data / file).read_text())
+        name = data["name"]
+        names.append(name)
+        ok, line = check_convention(name, data)
+        print(line)
+        failures += not ok
+        table = data["elements"]
         for z in range(1, 19):
             ours = table.get(str(z))
             if ours is None:
@@ -82,9 +132,9 @@ def main():
             print(f"{name}: unexpected elements {extra}")
             failures += 1
     if failures:
-        print(f"FAILED: {failures} element tables differ from basis-set-exchange")
+        print(f"FAILED: {failures} element tables or conventions differ from basis-set-exchange")
         return 1
-    print("all sto-3g and sto-6g tables H-Ar equal basis-set-exchange")
+    print(f"all {', '.join(names)} tables H-Ar equal basis-set-exchange")
     return 0
 
 

@@ -1,10 +1,12 @@
-//! Placing a basis on a molecule: the named sets (`slater-1s`, `sto-3g`, `sto-6g`),
-//! generated `even-tempered` sets, and user-defined shells per element.
+//! Placing a basis on a molecule: `slater-1s`, the named Gaussian sets of
+//! `named` (`sto-3g` … `cc-pvdz`), generated `even-tempered` sets, and user-defined
+//! shells per element.
 
 use std::collections::BTreeMap;
 
 use serde::Deserialize;
 
+use super::named::{self, AngularForm};
 use super::{Basis, GaussianShell, Shell, SlaterShell};
 use crate::chem::{Molecule, elements};
 use crate::error::{Error, Result};
@@ -13,8 +15,12 @@ use crate::error::{Error, Result};
 #[derive(Debug, Clone, PartialEq, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct BasisSpec {
-    /// `slater-1s`, `sto-3g`, `sto-6g`, `even-tempered` or `custom`.
+    /// `slater-1s`, a named Gaussian set (`named::NAMES`), `even-tempered` or `custom`.
     pub set: String,
+    /// `pure` or `cartesian` shells with l ≥ 2, overriding the named set's own
+    /// convention (even-tempered: pure by default). None keeps the default.
+    #[serde(default)]
+    pub functions: Option<AngularForm>,
     /// 1s exponent per element for `slater-1s` (default ζ = Z).
     #[serde(default)]
     pub zeta: BTreeMap<String, f64>,
@@ -26,7 +32,8 @@ pub struct BasisSpec {
     pub shells: BTreeMap<String, Vec<ShellSpec>>,
 }
 
-/// Exponents α·β^k, k = 0…count−1, for every l ≤ l_max (pure functions).
+/// Exponents α·β^k, k = 0…count−1, for every l ≤ l_max (pure functions unless
+/// `functions = "cartesian"`).
 #[derive(Debug, Clone, Copy, PartialEq, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct EvenTempered {
@@ -48,16 +55,24 @@ pub struct ShellSpec {
     pub cartesian: bool,
 }
 
-pub const SET_NAMES: &str = "slater-1s, sto-3g, sto-6g, even-tempered, custom";
+pub const SET_NAMES: &str = "slater-1s, sto-3g, sto-6g, 3-21g, 6-31g, 6-31g* (6-31g(d)), 6-31g** (6-31g(d,p)), cc-pvdz, even-tempered, custom";
 
 impl BasisSpec {
     pub fn named(set: &str) -> Self {
         BasisSpec {
             set: set.into(),
+            functions: None,
             zeta: BTreeMap::new(),
             even_tempered: BTreeMap::new(),
             shells: BTreeMap::new(),
         }
+    }
+
+    /// The same set with shells of l ≥ 2 made `functions` (pure or Cartesian)
+    /// instead of the set's own convention.
+    pub fn with_functions(mut self, functions: AngularForm) -> Self {
+        self.functions = Some(functions);
+        self
     }
 
     pub fn is_slater_1s(&self) -> bool {
@@ -66,14 +81,29 @@ impl BasisSpec {
 
     /// Places the basis on every atom of `molecule`.
     pub fn build(&self, molecule: &Molecule) -> Result<Basis> {
-        let set = self.set.to_ascii_lowercase();
-        if !matches!(
-            set.as_str(),
-            "slater-1s" | "sto-3g" | "sto-6g" | "even-tempered" | "custom"
-        ) {
+        let named_set = named::canonical(&self.set);
+        let set = named_set.map_or_else(|| self.set.to_ascii_lowercase(), String::from);
+        if named_set.is_none() && !matches!(set.as_str(), "slater-1s" | "even-tempered" | "custom")
+        {
             return Err(Error::input(format!("unknown basis set {:?}", self.set))
                 .with_hint(format!("the basis sets are: {SET_NAMES}")));
         }
+        // Whether shells with l ≥ 2 are pure. s and p shells are the same functions
+        // either way and stay pure, so p keeps the order y, z, x in every set.
+        let pure = match (named_set, self.functions) {
+            (Some(name), f) => f
+                .or(named::functions(name))
+                .is_none_or(AngularForm::is_pure),
+            (None, f) if set == "even-tempered" => f.is_none_or(AngularForm::is_pure),
+            (None, None) => true,
+            (None, Some(f)) => {
+                return Err(Error::input(format!(
+                    "[basis] functions = {:?} applies to the named Gaussian sets and even-tempered, not to {set}",
+                    f.name()
+                ))
+                .with_hint("for shells of your own, give `cartesian = true` on each shell instead"));
+            }
+        };
         for key in self
             .zeta
             .keys()
@@ -110,17 +140,20 @@ impl BasisSpec {
                     })?;
                     shells.push(Shell::Slater(s));
                 }
-                "sto-3g" | "sto-6g" => {
-                    let named = super::named::shells(&set, atom.element.atomic_number).ok_or_else(
-                        || Error::input(format!("the {set} set has no functions for {symbol}")),
-                    )?;
+                _ if named_set.is_some() => {
+                    let named = named::shells(&set, atom.element.atomic_number).ok_or_else(|| {
+                        Error::input(format!("the {set} set has no functions for {symbol}"))
+                            .with_hint(format!(
+                                "lobecast carries the named sets for H–Ar; give shells of your own with [basis.shells] {symbol} = [...]"
+                            ))
+                    })?;
                     for s in named {
                         shells.push(Shell::Gaussian(GaussianShell::full(
                             i,
                             c,
                             s.l,
                             s.primitives,
-                            true,
+                            pure || s.l < 2,
                         )?));
                     }
                 }
@@ -129,7 +162,13 @@ impl BasisSpec {
                         Error::input(format!("even-tempered needs parameters for {symbol}"))
                             .with_hint(format!("add [basis.even-tempered] {symbol} = {{ l_max = 2, count = 10, alpha = 0.05, beta = 2.5 }}"))
                     })?;
-                    shells.extend(even_tempered(i, c, &self.even_tempered[&key], symbol)?);
+                    shells.extend(even_tempered(
+                        i,
+                        c,
+                        &self.even_tempered[&key],
+                        symbol,
+                        pure,
+                    )?);
                 }
                 _ => {
                     return Err(Error::input(format!(
@@ -150,7 +189,13 @@ fn find<'a>(mut keys: impl Iterator<Item = &'a String>, symbol: &str) -> Option<
     keys.find(|k| k.eq_ignore_ascii_case(symbol)).cloned()
 }
 
-fn even_tempered(atom: usize, c: [f64; 3], p: &EvenTempered, symbol: &str) -> Result<Vec<Shell>> {
+fn even_tempered(
+    atom: usize,
+    c: [f64; 3],
+    p: &EvenTempered,
+    symbol: &str,
+    pure: bool,
+) -> Result<Vec<Shell>> {
     let bad = |m: String| Error::input(format!("even-tempered parameters for {symbol}: {m}"));
     if p.l_max > super::harmonics::L_MAX {
         return Err(bad(format!("l_max must be at most 3, got {}", p.l_max)));
@@ -173,9 +218,90 @@ fn even_tempered(atom: usize, c: [f64; 3], p: &EvenTempered, symbol: &str) -> Re
                 c,
                 l,
                 vec![(alpha, 1.0)],
-                true,
+                pure || l < 2,
             )?));
         }
     }
     Ok(out)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::basis::{Angular, BasisKind};
+
+    fn atom(symbol: &str) -> Molecule {
+        // Charge 0 even for odd electron counts: building a basis ignores the charge.
+        Molecule::from_symbols(&[(symbol, [0.0, 0.0, 0.0])], 0).unwrap()
+    }
+
+    fn count(spec: &BasisSpec, symbol: &str) -> usize {
+        spec.build(&atom(symbol)).unwrap().len()
+    }
+
+    fn spec(text: &str) -> std::result::Result<BasisSpec, toml::de::Error> {
+        toml::from_str(text)
+    }
+
+    /// Function counts for C: 6-31G* 3s 2p 1d with six Cartesian d = 15, cc-pVDZ
+    /// 3s 2p 1d with five pure d = 14 (the published counts; basis-set-exchange 0.12
+    /// gives these shells, printed by tools/import_bse.py). The override swaps 5 and 6.
+    #[test]
+    fn each_set_uses_its_convention_unless_overridden() {
+        let cc = BasisSpec::named("cc-pVDZ");
+        assert_eq!(count(&cc, "C"), 14);
+        let cart = spec("set = \"cc-pvdz\"\nfunctions = \"cartesian\"\n").unwrap();
+        assert_eq!(count(&cart, "C"), 15);
+        assert_eq!(
+            count(&cc.clone().with_functions(AngularForm::Cartesian), "C"),
+            15
+        );
+        let pople = BasisSpec::named("6-31G(d)");
+        assert_eq!(count(&pople, "C"), 15);
+        assert_eq!(count(&pople.with_functions(AngularForm::Pure), "C"), 14);
+        // Only l ≥ 2 changes: p stays pure (y, z, x), d is Cartesian.
+        let b = BasisSpec::named("6-31g*").build(&atom("C")).unwrap();
+        for shell in &b.shells {
+            let Shell::Gaussian(g) = shell else {
+                panic!("6-31g* is Gaussian")
+            };
+            let pure = g.functions.iter().all(|f| matches!(f, Angular::Pure(_)));
+            assert_eq!(pure, g.l < 2, "l = {}", g.l);
+        }
+        // s and p are the same either way: H in cc-pVDZ is 2s 1p = 5 both ways.
+        assert_eq!(count(&cart, "H"), 5);
+        assert_eq!(count(&cc, "H"), 5);
+        let et = "set = \"even-tempered\"\neven-tempered = { H = { l_max = 2, count = 1, alpha = 1.0, beta = 2.0 } }\n";
+        assert_eq!(count(&spec(et).unwrap(), "H"), 1 + 3 + 5);
+        let et = format!("functions = \"cartesian\"\n{et}");
+        assert_eq!(count(&spec(&et).unwrap(), "H"), 1 + 3 + 6);
+    }
+
+    #[test]
+    fn the_basis_is_named_canonically_and_extended_sets_are_not_minimal() {
+        let b = BasisSpec::named("6-31G(d,p)").build(&atom("H")).unwrap();
+        assert_eq!(b.name, "6-31g**");
+        for set in ["3-21g", "6-31g", "6-31g*", "6-31g**", "cc-pvdz"] {
+            let b = BasisSpec::named(set).build(&atom("C")).unwrap();
+            assert_eq!(b.kind(), BasisKind::Extended, "{set}");
+            assert!(!b.kind().is_minimal(), "{set}");
+        }
+        let b = BasisSpec::named("STO-3G").build(&atom("C")).unwrap();
+        assert_eq!((b.name.as_str(), b.kind()), ("sto-3g", BasisKind::StoNg));
+    }
+
+    #[test]
+    fn bad_sets_elements_and_functions_are_input_errors() {
+        let e = BasisSpec::named("6-31g*").build(&atom("K")).unwrap_err();
+        assert_eq!(e.kind, crate::error::Kind::Input);
+        assert_eq!(e.message, "the 6-31g* set has no functions for K");
+        let e = BasisSpec::named("6-311g").build(&atom("H")).unwrap_err();
+        assert!(e.hint.unwrap().contains("cc-pvdz"));
+        let e = spec("set = \"cc-pvdz\"\nfunctions = \"spherical\"\n").unwrap_err();
+        assert!(e.message().contains("`pure`") && e.message().contains("`cartesian`"));
+        let s1 = BasisSpec::named("slater-1s").with_functions(AngularForm::Pure);
+        let e = s1.build(&atom("H")).unwrap_err();
+        assert_eq!(e.kind, crate::error::Kind::Input);
+        assert!(e.message.contains("slater-1s"), "{}", e.message);
+    }
 }
