@@ -211,3 +211,31 @@ fn non_convergence_is_exit_1_with_the_figures() {
     );
     assert!(!d.path().join("w.json").exists());
 }
+
+/// cc-pVDZ is pure by its published convention (O: 3s2p1d = 14, H: 2s1p = 5, so 24
+/// for water); `--functions cartesian` turns the O d shell into 6 components (25).
+/// Counts from the basis-set-exchange data (tests/basis_data.rs).
+#[test]
+fn functions_override_changes_the_d_shell() {
+    let d = dir();
+    write_file(d.path(), "w.xyz", WATER);
+    let pure = ok(
+        d.path(),
+        &["solve", "w.xyz", "--method", "rhf", "--basis", "cc-pvdz"],
+    );
+    assert!(pure.contains("24 basis functions"), "{pure}");
+    let cart = ok(
+        d.path(),
+        &[
+            "solve",
+            "w.xyz",
+            "--method",
+            "rhf",
+            "--basis",
+            "cc-pvdz",
+            "--functions",
+            "cartesian",
+        ],
+    );
+    assert!(cart.contains("25 basis functions"), "{cart}");
+}

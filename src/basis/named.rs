@@ -43,6 +43,17 @@ pub enum AngularForm {
     Cartesian,
 }
 
+impl std::str::FromStr for AngularForm {
+    type Err = String;
+    fn from_str(s: &str) -> std::result::Result<Self, String> {
+        match s.trim().to_ascii_lowercase().as_str() {
+            "pure" => Ok(AngularForm::Pure),
+            "cartesian" => Ok(AngularForm::Cartesian),
+            _ => Err(format!("unknown form {s:?}: use pure or cartesian")),
+        }
+    }
+}
+
 impl AngularForm {
     pub fn is_pure(self) -> bool {
         self == AngularForm::Pure

@@ -25,6 +25,11 @@ pub struct XyzFlags {
     /// 6-31g*, 6-31g**, cc-pvdz)
     #[arg(long, value_name = "SET")]
     pub basis: Option<String>,
+    /// For an XYZ file with --basis: d (and f) functions as pure real solid harmonics
+    /// or Cartesian components [default: the set's own convention: Pople sets
+    /// Cartesian, cc-pvdz pure]
+    #[arg(long, value_name = "FORM", value_parser = super::values::angular_form())]
+    pub functions: Option<lobecast::basis::named::AngularForm>,
     /// For an XYZ file: the net charge of the molecule [default: 0]
     #[arg(long, allow_negative_numbers = true, value_name = "Q")]
     pub charge: Option<i32>,
@@ -69,6 +74,7 @@ impl XyzFlags {
             method: self.method.as_deref().map(MethodKind::parse).transpose()?,
             charge: self.charge,
             basis: self.basis.clone(),
+            functions: self.functions,
             multiplicity,
             max_iterations,
             spin: self.spin,

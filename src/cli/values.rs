@@ -19,6 +19,10 @@ pub fn channel() -> impl TypedValueParser<Value = lobecast::solve::orbitals::Cha
     choice(&["alpha", "beta"])
 }
 
+pub fn angular_form() -> impl TypedValueParser<Value = lobecast::basis::named::AngularForm> {
+    choice(&["pure", "cartesian"])
+}
+
 pub fn length_unit() -> impl TypedValueParser<Value = LengthUnit> {
     choice(&["angstrom", "bohr"])
 }

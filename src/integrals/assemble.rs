@@ -115,7 +115,7 @@ pub fn gaussian_matrices(molecule: &Molecule, basis: &Basis) -> Result<OneElectr
 /// or two identical atoms carrying the same exponent.
 pub fn slater_1s_matrices(molecule: &Molecule, basis: &Basis) -> Result<OneElectronMatrices> {
     let why = "the slater-1s set uses exact closed forms, which lobecast has for one atom \
-               or for two identical atoms with the same exponent; use sto-3g, sto-6g or \
+               or for two identical atoms with the same exponent; use a Gaussian set (sto-3g, 6-31g*, cc-pvdz, …) or \
                even-tempered Gaussian functions for other molecules";
     let zetas: Vec<f64> = basis
         .shells

@@ -87,6 +87,8 @@ pub struct LoadOptions {
     pub charge: Option<i32>,
     /// The named basis set, for Hartree–Fock on an XYZ file.
     pub basis: Option<String>,
+    /// Overrides the named set's pure or Cartesian convention for l ≥ 2.
+    pub functions: Option<crate::basis::named::AngularForm>,
     pub multiplicity: Option<u32>,
     /// Hartree–Fock: overrides the most SCF iterations (model file or default).
     pub max_iterations: Option<usize>,
@@ -170,6 +172,7 @@ pub fn load_with(path: &Path, options: &LoadOptions) -> Result<Model> {
     if options.method.is_some()
         || options.charge.is_some()
         || options.basis.is_some()
+        || options.functions.is_some()
         || options.multiplicity.is_some()
     {
         return Err(Error::input(format!(
@@ -230,11 +233,12 @@ fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
     })?;
     if !is_scf(method)
         && (options.basis.is_some()
+            || options.functions.is_some()
             || options.multiplicity.is_some()
             || options.max_iterations.is_some())
     {
         return Err(Error::input(
-            "--basis, --multiplicity and --max-iterations go with --method rhf or uhf",
+            "--basis, --functions, --multiplicity and --max-iterations go with --method rhf or uhf",
         ));
     }
     let text =
@@ -264,7 +268,10 @@ fn from_xyz(path: &Path, options: &LoadOptions) -> Result<Model> {
                 Error::input(format!("--method {} needs --basis", method_name(method)))
                     .with_hint(format!("the basis sets: {}", crate::basis::sets::SET_NAMES))
             })?;
-            let spec = BasisSpec::named(set);
+            let mut spec = BasisSpec::named(set);
+            if let Some(f) = options.functions {
+                spec = spec.with_functions(f);
+            }
             let basis = spec.build(&molecule).map_err(|e| e.context(&name))?;
             let options = scf_options(method, options.multiplicity, options.max_iterations)?;
             crate::solve::scf::occupation::spin_counts(
