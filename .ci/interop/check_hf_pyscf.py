@@ -1,0 +1,510 @@
+"""Interop check: lobecast's Hartree-Fock (RHF/UHF, named basis sets) against PySCF.
+
+PySCF (a general-purpose reference library from PyPI) is used only for its
+integrals, basis parsing, SCF, Mulliken populations, <S^2> and atomic-orbital
+values; nothing of it writes or reads a file here.
+
+For each molecule below, `lobecast solve MOL.xyz --method rhf|uhf --basis NAME
+--json OUT.json` runs, and PySCF solves the same molecule in the same basis:
+the basis data come from the basis-set-exchange package in NWChem format,
+parsed by `pyscf.gto.basis.parse`, so both programs start from the same digits.
+Compared (tolerances, see TOL): total energy, nuclear repulsion, orbital
+energies (occupied and the lowest virtuals, per spin), Mulliken charges, the
+dipole about the origin the file states, UHF <S^2>, and the electron density
+at 2000 points, evaluated from the orbital file's own basis entries and
+coefficients by a small numpy/scipy evaluator written here (a second
+implementation of the file's documented conventions) against PySCF's density
+from its own SCF.
+
+Prints one line per molecule with the worst deviations; exits 1 on any failure.
+
+    check_hf_pyscf.py --lobecast PATH --workdir DIR
+"""
+import argparse
+import json
+import math
+import subprocess
+import sys
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+from scipy import special
+
+import basis_set_exchange as bse
+import pyscf
+from pyscf import gto, scf
+from pyscf.dft import numint
+
+# CODATA 2018 Bohr radius in ångström (NIST CODATA 2018: 0.529 177 210 903(80) e-10 m),
+# the constant lobecast converts XYZ ångström with. PySCF's own constant is the 2010
+# value (0.52917721092), 3e-11 relative away: enough to move the nuclear repulsion of
+# O2 by ~1e-9 hartree, beyond the 1e-10 tolerance. So PySCF gets the same ångström
+# coordinates with this constant as its unit (PySCF's `unit` accepts a number: the
+# Bohr radius in the input's unit), i.e. the same bohr positions as lobecast.
+BOHR_ANGSTROM = 0.529177210903
+
+# Tolerances (absolute, atomic units).
+TOL = {
+    # Brief's targets. Energies are second order in the density error, so an SCF
+    # stopped at an RMS commutator of 1e-7 (lobecast's documented default) is far
+    # inside 1e-8 hartree; the nuclear repulsion is closed-form from the positions.
+    "energy": 1e-8,
+    "nuclear_repulsion": 1e-10,
+    # Orbital energies, Mulliken charges and the dipole are first order in the
+    # density error (~1e-7 at that commutator), hence 1e-6 and 1e-5.
+    "orbital_energy": 1e-6,
+    "mulliken": 1e-5,
+    "dipole": 1e-5,
+    "s_squared": 1e-6,
+    # Positions in the file vs the XYZ converted with BOHR_ANGSTROM (bohr).
+    "position": 1e-10,
+}
+# Density: |lobecast - PySCF| <= DENSITY_ATOL + DENSITY_RTOL * rho_PySCF.
+# 1e-8 absolute where the density is small (tails and bonds, rho < ~0.01); near
+# nuclei the density reaches ~300 au (O 1s) and 1e-8 absolute would ask for 3e-11
+# relative, more than any SCF converged to a commutator of 1e-7 can give: the
+# density matrix itself is only good to ~1e-7 relative there. 1e-6 relative is
+# ten times that, and still 1e4 times smaller than what a wrong normalisation or
+# sign of one d or p function would do to the density (>1e-2 relative where that
+# function matters). Both programs' own floors are below this.
+DENSITY_ATOL = 1e-8
+DENSITY_RTOL = 1e-6
+# How many virtual orbitals per spin are compared besides the occupied ones.
+VIRTUALS = 5
+# Points for the density comparison (seeded: the same points every run).
+POINTS = 2000
+
+SYMBOLS = "H He Li Be B C N O F Ne Na Mg Al Si P S Cl Ar".split()
+# Pople sets are used with Cartesian d (6d) by default, cc-pVDZ with pure d (5d):
+# the contract of `lobecast solve --basis`, and the sets' usual definitions.
+CARTESIAN_BY_DEFAULT = {"sto-3g": True, "3-21g": True, "6-31g": True, "6-31g*": True,
+                        "6-31g**": True, "cc-pvdz": False}
+
+
+@dataclass
+class Case:
+    name: str
+    method: str  # "rhf" or "uhf"
+    basis: str
+    charge: int
+    multiplicity: int
+    atoms: list  # [(symbol, x, y, z)] in ångström
+    source: str
+    functions: str = None  # None: the set's default; "pure" or "cartesian" to override
+    published_energy: tuple = None  # (value, tolerance, source) for an outside anchor
+
+
+def bent(sym_c, sym_h, r, angle_deg):
+    """A-H2 in the xz plane, A at the origin, bisector along +z."""
+    h = math.radians(angle_deg) / 2
+    return [(sym_c, 0.0, 0.0, 0.0), (sym_h, r * math.sin(h), 0.0, r * math.cos(h)),
+            (sym_h, -r * math.sin(h), 0.0, r * math.cos(h))]
+
+
+def pyramid(sym_c, sym_h, r, angle_deg):
+    """A-H3 of C3v symmetry with H-A-H angle `angle_deg`, A at the origin, axis z."""
+    # H.H' = r^2 (1 - 1.5 sin^2 b) for the polar angle b of each bond.
+    sb = math.sqrt((1 - math.cos(math.radians(angle_deg))) / 1.5)
+    cb = math.sqrt(1 - sb * sb)
+    return [(sym_c, 0.0, 0.0, 0.0)] + [
+        (sym_h, r * sb * math.cos(2 * math.pi * k / 3), r * sb * math.sin(2 * math.pi * k / 3), -r * cb)
+        for k in range(3)]
+
+
+def tetrahedron(sym_c, sym_h, r):
+    s = r / math.sqrt(3)
+    return [(sym_c, 0.0, 0.0, 0.0)] + [(sym_h, s * a, s * b, s * c) for a, b, c in
+                                       ((1, 1, 1), (1, -1, -1), (-1, 1, -1), (-1, -1, 1))]
+
+
+def diatomic(a, b, r):
+    return [(a, 0.0, 0.0, 0.0), (b, 0.0, 0.0, r)]
+
+
+# Geometries: experimental equilibrium structures as tabulated in NIST CCCBDB
+# (experimental geometries; values "from memory", rounded as shown) or "common
+# practice" rounded values. They need only be the same for both programs.
+CASES = [
+    Case("H2", "rhf", "sto-3g", 0, 1, diatomic("H", "H", 1.4 * BOHR_ANGSTROM),
+         "R = 1.4 bohr, Szabo & Ostlund, Modern Quantum Chemistry, ch. 3",
+         published_energy=(-1.1167, 1e-4, "Szabo & Ostlund ch. 3, STO-3G H2 at 1.4 bohr (from memory)")),
+    Case("H2O", "rhf", "6-31g*", 0, 1, bent("O", "H", 0.9572, 104.52),
+         "CCCBDB experimental r(OH) 0.9572 A, HOH 104.52 deg (from memory)"),
+    Case("H2O pure d", "rhf", "6-31g*", 0, 1, bent("O", "H", 0.9572, 104.52),
+         "as H2O", functions="pure"),
+    Case("NH3", "rhf", "cc-pvdz", 0, 1, pyramid("N", "H", 1.012, 106.7),
+         "CCCBDB experimental r(NH) 1.012 A, HNH 106.7 deg (from memory)"),
+    Case("NH3 cartesian d", "rhf", "cc-pvdz", 0, 1, pyramid("N", "H", 1.012, 106.7),
+         "as NH3", functions="cartesian"),
+    Case("CH4", "rhf", "6-31g**", 0, 1, tetrahedron("C", "H", 1.087),
+         "CCCBDB experimental r(CH) 1.087 A, Td (from memory)"),
+    Case("HF", "rhf", "3-21g", 0, 1, diatomic("F", "H", 0.9168),
+         "CCCBDB experimental r 0.9168 A (from memory)"),
+    Case("N2", "rhf", "6-31g", 0, 1, diatomic("N", "N", 1.0977),
+         "CCCBDB experimental r 1.0977 A (from memory)"),
+    Case("H3O+", "rhf", "sto-3g", 1, 1, pyramid("O", "H", 0.98, 112.0),
+         "common practice: r(OH) 0.98 A, HOH 112 deg, C3v"),
+    Case("NH4+", "rhf", "6-31g", 1, 1, tetrahedron("N", "H", 1.02),
+         "common practice: r(NH) 1.02 A, Td"),
+    Case("H2O+ doublet", "uhf", "6-31g*", 1, 2, bent("O", "H", 0.9572, 104.52),
+         "neutral H2O geometry (vertical ion, common practice)"),
+    Case("CH2 triplet", "uhf", "cc-pvdz", 0, 3, bent("C", "H", 1.0753, 133.93),
+         "triplet methylene r(CH) 1.0753 A, HCH 133.93 deg (Jensen & Bunker 1988, from memory)"),
+    Case("O2 triplet", "uhf", "6-31g", 0, 3, diatomic("O", "O", 1.2075),
+         "CCCBDB experimental r 1.2075 A (from memory)"),
+]
+
+
+# ---------------------------------------------------------------------------
+# PySCF side
+
+
+def bse_basis_for_pyscf(name, symbols):
+    """The basis from basis-set-exchange (NWChem format), parsed by PySCF, per element."""
+    out = {}
+    for sym in sorted(set(symbols)):
+        text = bse.get_basis(name, elements=[sym], fmt="nwchem", header=False)
+        out[sym] = gto.basis.parse(text, symb=sym, optimize=False)
+    return out
+
+
+def uses_cartesian(case):
+    if case.functions is not None:
+        return case.functions == "cartesian"
+    return CARTESIAN_BY_DEFAULT[case.basis]
+
+
+def pyscf_solve(case):
+    """PySCF's molecule and converged SCF (internal stability checked) for one case."""
+    mol = gto.Mole()
+    mol.atom = [(s, (x, y, z)) for s, x, y, z in case.atoms]
+    mol.basis = bse_basis_for_pyscf(case.basis, [a[0] for a in case.atoms])
+    # Pople sets: cart=True (Cartesian d), cc-pVDZ: cart=False (pure), unless the
+    # case asks lobecast for the other kind with --functions.
+    mol.cart = uses_cartesian(case)
+    mol.charge = case.charge
+    mol.spin = case.multiplicity - 1
+    mol.verbose = 0
+    mol.build(unit=BOHR_ANGSTROM)  # ångström input, CODATA 2018 (see BOHR_ANGSTROM)
+    mf = scf.RHF(mol) if case.method == "rhf" else scf.UHF(mol)
+    mf.conv_tol = 1e-12
+    mf.conv_tol_grad = 1e-9
+    mf.max_cycle = 200
+    mf.kernel()
+    # Follow internal instabilities down to a stable solution, so that the reference
+    # is a true local minimum (the UHF ground state for the open shells here).
+    for _ in range(3):
+        mo, _, stable, _ = mf.stability(return_status=True)
+        if stable:
+            break
+        mf.kernel(mf.make_rdm1(mo, mf.mo_occ))
+    if not mf.converged:
+        raise RuntimeError(f"{case.name}: PySCF SCF did not converge")
+    return mol, mf
+
+
+def pyscf_reference(case):
+    mol, mf = pyscf_solve(case)
+    ref = {"mol": mol, "mf": mf, "e_tot": mf.e_tot, "e_nuc": mol.energy_nuc(), "nao": mol.nao_nr()}
+    if case.method == "rhf":
+        occ = [(mf.mo_energy, mf.mo_occ > 0)]
+        ref["dm_spin"] = [mf.make_rdm1()]
+        ref["s2"] = 0.0
+    else:
+        occ = [(mf.mo_energy[s], mf.mo_occ[s] > 0) for s in (0, 1)]
+        ref["dm_spin"] = list(mf.make_rdm1())
+        ref["s2"] = mf.spin_square()[0]
+    ref["levels"] = [(np.sort(e[o]), np.sort(e[~o])) for e, o in occ]
+    ref["mulliken"] = np.asarray(mf.mulliken_pop(verbose=0)[1])
+    return ref
+
+
+def pyscf_dipole(ref, origin):
+    """Dipole (au) about `origin` from PySCF's density: -tr(D r) + sum Z (R - origin)."""
+    mol = ref["mol"]
+    dm = sum(ref["dm_spin"])
+    with mol.with_common_orig(origin):
+        r = mol.intor_symmetric("int1e_r", comp=3)
+    electronic = -np.einsum("xij,ji->x", r, dm)
+    nuclear = np.einsum("a,ax->x", mol.atom_charges(), mol.atom_coords() - np.asarray(origin))
+    return electronic + nuclear
+
+
+def pyscf_density(ref, pts):
+    """PySCF's density per spin (one entry, the total, for RHF) at points in bohr."""
+    ao = numint.eval_ao(ref["mol"], pts)
+    return [numint.eval_rho(ref["mol"], ao, dm) for dm in ref["dm_spin"]]
+
+
+# ---------------------------------------------------------------------------
+# Independent evaluator of the orbital file (numpy/scipy only, not PySCF)
+
+
+def complex_ylm(l, m, theta, phi):
+    """Y_l^m (theta polar, phi azimuth) with the Condon-Shortley phase, from scipy."""
+    if hasattr(special, "sph_harm_y"):
+        return special.sph_harm_y(l, m, theta, phi)
+    return special.sph_harm(m, l, phi, theta)
+
+
+def real_ylm(l, m, x, y, z):
+    """Real spherical harmonic normalised on the sphere, without the Condon-Shortley
+    phase: m > 0 cosine type, m < 0 sine type, both with a positive leading term
+    (p: m = -1, 0, 1 is y, z, x; d: m = -2..2 is xy, yz, 3z^2-r^2, xz, x^2-y^2)."""
+    r = np.sqrt(x * x + y * y + z * z)
+    r = np.where(r == 0.0, 1e-300, r)
+    theta = np.arccos(np.clip(z / r, -1.0, 1.0))
+    phi = np.arctan2(y, x)
+    if m == 0:
+        return complex_ylm(l, 0, theta, phi).real
+    c = complex_ylm(l, abs(m), theta, phi) * (-1) ** abs(m)  # remove (-1)^m
+    return math.sqrt(2.0) * (c.real if m > 0 else c.imag)
+
+
+def odd_double_factorial(k):
+    """(2k-1)!! with (-1)!! = 1."""
+    return math.prod(range(1, 2 * k, 2))
+
+
+def basis_function_values(entry, centre, pts):
+    """One basis entry of the orbital file at points (bohr), normalised to 1 as the
+    file's conventions say: normalised primitives, contraction renormalised."""
+    if entry.get("type") != "gaussian":
+        raise ValueError(f"unexpected basis entry type {entry.get('type')!r}")
+    d = pts - np.asarray(centre, dtype=float)
+    x, y, z = d[:, 0], d[:, 1], d[:, 2]
+    r2 = x * x + y * y + z * z
+    prims = [(float(a), float(c)) for a, c in entry["primitives"]]
+    if "powers" in entry:
+        a, b, c = entry["powers"]
+        l = a + b + c
+        # Each Cartesian component x^a y^b z^c exp(-al r^2) normalised on its own.
+        angular = x**a * y**b * z**c / math.sqrt(
+            odd_double_factorial(a) * odd_double_factorial(b) * odd_double_factorial(c))
+
+        def norm(al):
+            return (2 * al / math.pi) ** 0.75 * (4 * al) ** (l / 2)
+    else:
+        l, m = entry["l"], entry["m"]
+        angular = np.sqrt(r2) ** l * real_ylm(l, m, x, y, z)
+
+        def norm(al):  # r^l exp(-al r^2) normalised on the radial measure r^2 dr
+            return math.sqrt(2 * (2 * al) ** (l + 1.5) / math.gamma(l + 1.5))
+    # Overlap of two normalised primitives of the same angular part.
+    self_overlap = sum(ci * cj * (2 * math.sqrt(ai * aj) / (ai + aj)) ** (l + 1.5)
+                       for ai, ci in prims for aj, cj in prims)
+    radial = sum(ci * norm(ai) * np.exp(-ai * r2) for ai, ci in prims)
+    return radial * angular / math.sqrt(self_overlap)
+
+
+def file_basis_values(doc, pts):
+    centres = [a["position"] for a in doc["atoms"]]
+    return np.stack([basis_function_values(e, centres[e["atom"]], pts) for e in doc["basis"]], axis=1)
+
+
+def file_orbital_sets(doc):
+    """[(energies, occupations, coefficient matrix)] per spin (one set for RHF)."""
+    keys = ["orbitals"] if "orbitals" in doc else ["orbitals_alpha", "orbitals_beta"]
+    out = []
+    for k in keys:
+        orbs = doc[k]
+        out.append((np.array([o["energy"] for o in orbs], dtype=float),
+                    np.array([o["occupation"] for o in orbs], dtype=float),
+                    np.array([o["coefficients"] for o in orbs], dtype=float)))
+    return out
+
+
+def file_density(doc, pts):
+    """Density per spin set from the file's basis and coefficients (numpy/scipy only)."""
+    phi = file_basis_values(doc, pts)
+    out = []
+    for _, occ, coef in file_orbital_sets(doc):
+        psi = phi @ coef.T
+        out.append(psi**2 @ occ)
+    return out
+
+
+def sample_points(doc, rng):
+    """Half uniform in the molecule's box padded by 3 bohr, half within ~0.8 bohr of
+    the nuclei (where core and polarisation functions matter)."""
+    pos = np.array([a["position"] for a in doc["atoms"]], dtype=float)
+    lo, hi = pos.min(axis=0) - 3.0, pos.max(axis=0) + 3.0
+    n_box = POINTS // 2
+    box = lo + (hi - lo) * rng.random((n_box, 3))
+    near = pos[rng.integers(0, len(pos), POINTS - n_box)] + 0.8 * rng.standard_normal((POINTS - n_box, 3))
+    return np.vstack([box, near])
+
+
+# ---------------------------------------------------------------------------
+# The comparison
+
+
+def write_xyz(case, path):
+    lines = [str(len(case.atoms)), f"{case.name}: {case.source}"]
+    lines += [f"{s} {x:.12f} {y:.12f} {z:.12f}" for s, x, y, z in case.atoms]
+    path.write_text("\n".join(lines) + "\n")
+
+
+def run_lobecast(exe, case, work):
+    stem = case.name.replace(" ", "_").replace("+", "plus")
+    xyz, out = work / f"{stem}.xyz", work / f"{stem}.json"
+    write_xyz(case, xyz)
+    cmd = [exe, "solve", str(xyz), "--method", case.method, "--basis", case.basis,
+           "--charge", str(case.charge), "--multiplicity", str(case.multiplicity), "--json", str(out)]
+    if case.functions:
+        cmd += ["--functions", case.functions]
+    proc = subprocess.run(cmd, capture_output=True, text=True)
+    if proc.returncode != 0:
+        raise RuntimeError(f"{' '.join(cmd)} exited {proc.returncode}:\n{proc.stderr.strip()}")
+    return json.loads(out.read_text())
+
+
+class Checker:
+    """Collects worst deviations per quantity and failures for one molecule."""
+
+    def __init__(self):
+        self.worst = {}
+        self.failures = []
+
+    def close(self, key, got, want, tol):
+        got, want = np.atleast_1d(np.asarray(got, float)), np.atleast_1d(np.asarray(want, float))
+        if got.shape != want.shape:
+            self.failures.append(f"{key}: {got.shape[0]} values, PySCF has {want.shape[0]}")
+            return
+        dev = float(np.max(np.abs(got - want))) if got.size else 0.0
+        self.worst[key] = max(self.worst.get(key, 0.0), dev)
+        if not dev <= tol:
+            i = int(np.argmax(np.abs(got - want)))
+            self.failures.append(f"{key}: |lobecast - reference| = {dev:.2e} > {tol:.0e} "
+                                 f"(index {i}: {got[i]:.12g} vs {want[i]:.12g})")
+
+    def require(self, cond, message):
+        if not cond:
+            self.failures.append(message)
+
+
+def expected_origin(case, doc):
+    """The documented dipole origin: centre of nuclear charge for ions, else (0,0,0)."""
+    if case.charge == 0:
+        return np.zeros(3)
+    z = np.array([a["atomic_number"] for a in doc["atoms"]], dtype=float)
+    pos = np.array([a["position"] for a in doc["atoms"]], dtype=float)
+    return z @ pos / z.sum()
+
+
+def compare(case, doc, ref, rng):
+    c = Checker()
+    mol = ref["mol"]
+    # Header and geometry.
+    c.require(doc.get("format") == "lobecast-orbitals" and doc.get("version") == 2,
+              f"format/version {doc.get('format')!r}/{doc.get('version')!r}")
+    c.require(str(doc.get("method", "")).lower() == case.method, f"method {doc.get('method')!r}")
+    c.require(doc.get("charge") == case.charge and doc.get("multiplicity") == case.multiplicity,
+              f"charge/multiplicity {doc.get('charge')}/{doc.get('multiplicity')}")
+    c.require([a["element"] for a in doc["atoms"]] == [a[0] for a in case.atoms], "atom elements differ")
+    c.require([a["atomic_number"] for a in doc["atoms"]] == [SYMBOLS.index(a[0]) + 1 for a in case.atoms],
+              "atomic numbers differ")
+    want_pos = np.array([a[1:] for a in case.atoms]) / BOHR_ANGSTROM
+    c.close("position", [a["position"] for a in doc["atoms"]], want_pos, TOL["position"])
+    c.require(len(doc["basis"]) == ref["nao"],
+              f"{len(doc['basis'])} basis functions, PySCF has {ref['nao']}")
+    if c.failures:
+        return c
+
+    # Energies.
+    c.close("E_nuc", doc["nuclear_repulsion"], ref["e_nuc"], TOL["nuclear_repulsion"])
+    c.close("E_tot", doc["total_energy"], ref["e_tot"], TOL["energy"])
+
+    # Orbital levels per spin: occupied ones, then the lowest virtuals.
+    sets = file_orbital_sets(doc)
+    if len(sets) != len(ref["levels"]):
+        c.failures.append(f"{len(sets)} orbital set(s) in the file, {case.method.upper()} has {len(ref['levels'])}")
+        return c
+    n_elec = mol.nelectron
+    c.close("electrons", sum(float(occ.sum()) for _, occ, _ in sets), n_elec, 1e-12)
+    full = 2.0 if case.method == "rhf" else 1.0
+    for s, ((energy, occ, coef), (ref_occ, ref_vir)) in enumerate(zip(sets, ref["levels"])):
+        if coef.shape != (len(energy), ref["nao"]):
+            c.failures.append(f"spin set {s}: coefficient matrix {coef.shape}, want ({len(energy)}, {ref['nao']})")
+            return c
+        c.require(np.all((occ == 0.0) | (occ == full)), f"spin set {s}: occupations not 0/{full:g}")
+        occupied, virtual = np.sort(energy[occ > 0]), np.sort(energy[occ == 0])
+        c.close("eps_occ", occupied, ref_occ, TOL["orbital_energy"])
+        k = min(VIRTUALS, len(ref_vir))
+        c.close("eps_vir", virtual[:k], ref_vir[:k], TOL["orbital_energy"])
+
+    # Properties.
+    props = doc["properties"]
+    c.close("mulliken", props["mulliken_charges"], ref["mulliken"], TOL["mulliken"])
+    origin = np.asarray(props["dipole"]["origin"], dtype=float)
+    c.close("dipole_origin", origin, expected_origin(case, doc), 1e-10)
+    c.close("dipole", props["dipole"]["au"], pyscf_dipole(ref, origin), TOL["dipole"])
+    s2 = props.get("s_squared")
+    if case.method == "uhf":
+        c.require(s2 is not None, "UHF file has no s_squared")
+        if s2 is not None:
+            c.close("S2", s2, ref["s2"], TOL["s_squared"])
+    elif s2 is not None:  # closed-shell RHF: exactly 0 when given
+        c.close("S2", s2, 0.0, TOL["s_squared"])
+
+    # Density at points: the file's conventions (second implementation) vs PySCF's SCF.
+    pts = sample_points(doc, rng)
+    mine, theirs = file_density(doc, pts), pyscf_density(ref, pts)
+    for s, (got, want) in enumerate(zip(mine, theirs)):
+        excess = np.abs(got - want) - (DENSITY_ATOL + DENSITY_RTOL * np.abs(want))
+        rel = np.abs(got - want) / np.maximum(np.abs(want), DENSITY_ATOL / DENSITY_RTOL)
+        c.worst["rho_abs"] = max(c.worst.get("rho_abs", 0.0), float(np.max(np.abs(got - want))))
+        c.worst["rho_rel"] = max(c.worst.get("rho_rel", 0.0), float(np.max(rel)))
+        if np.any(excess > 0):
+            i = int(np.argmax(excess))
+            c.failures.append(f"density (spin set {s}) at {pts[i].round(4).tolist()} bohr: "
+                              f"file {got[i]:.10e}, PySCF {want[i]:.10e} "
+                              f"(tolerance {DENSITY_ATOL:.0e} + {DENSITY_RTOL:.0e} rho)")
+    return c
+
+
+def main():
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--lobecast", required=True)
+    ap.add_argument("--workdir", required=True, type=Path)
+    ap.add_argument("--only", action="append", default=[],
+                    help="run only the named molecule(s), e.g. --only H2O (repeatable)")
+    args = ap.parse_args()
+    cases = [c for c in CASES if not args.only or c.name in args.only]
+    if not cases:
+        ap.error(f"no molecule named {args.only}; known: {[c.name for c in CASES]}")
+    args.workdir.mkdir(parents=True, exist_ok=True)
+    print(f"PySCF {pyscf.__version__}, basis-set-exchange {bse.version()}")
+    rng = np.random.default_rng(20261204)
+    failed = []
+    for case in cases:
+        label = f"{case.name} {case.method.upper()}/{case.basis}"
+        try:
+            ref = pyscf_reference(case)
+            if case.published_energy:
+                value, tol, source = case.published_energy
+                if abs(ref["e_tot"] - value) > tol:
+                    raise RuntimeError(f"PySCF setup: E = {ref['e_tot']:.6f}, {source} gives {value}")
+            doc = run_lobecast(args.lobecast, case, args.workdir)
+            c = compare(case, doc, ref, rng)
+        except Exception as e:  # noqa: BLE001 - any failure is reported per molecule
+            print(f"{label:32} FAIL: {e}")
+            failed.append(case.name)
+            continue
+        worst = "  ".join(f"{k} {v:.1e}" for k, v in c.worst.items() if k not in ("electrons",))
+        print(f"{label:32} {'ok  ' if not c.failures else 'FAIL'} E={ref['e_tot']:.10f}  {worst}")
+        for f in c.failures:
+            print(f"    {f}")
+        if c.failures:
+            failed.append(case.name)
+    if failed:
+        print(f"FAILED: lobecast's Hartree-Fock differs from PySCF for {len(failed)} of "
+              f"{len(cases)} molecules: {', '.join(failed)}")
+        return 1
+    print(f"all {len(cases)} molecules: lobecast's RHF/UHF equals PySCF within the tolerances")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
