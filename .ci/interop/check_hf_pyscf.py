@@ -14,7 +14,10 @@ dipole about the origin the file states, UHF <S^2>, and the electron density
 at 2000 points, evaluated from the orbital file's own basis entries and
 coefficients by a small numpy/scipy evaluator written here (a second
 implementation of the file's documented conventions) against PySCF's density
-from its own SCF.
+from its own SCF. Also: the file's basis functions span exactly PySCF's basis
+(a least-squares map between the two sets of function values), and under
+PySCF's overlap integrals carried over by that map every file function has norm
+1 and the orbitals, virtuals included, are orthonormal.
 
 Prints one line per molecule with the worst deviations; exits 1 on any failure.
 
@@ -57,6 +60,13 @@ TOL = {
     "mulliken": 1e-5,
     "dipole": 1e-5,
     "s_squared": 1e-6,
+    # The file's basis functions as a linear map of PySCF's AOs: worst residual
+    # relative to each function's size. Both come from the same printed digits, so
+    # only rounding separates them; a changed digit in a coefficient (1e-7) shows.
+    "basis_fit": 1e-9,
+    # Each file function normalised to 1 (the file's convention) and the orbitals
+    # orthonormal, under PySCF's overlap integrals carried over by that map.
+    "orthonormal": 1e-8,
     # Positions in the file vs the XYZ converted with BOHR_ANGSTROM (bohr).
     "position": 1e-10,
 }
@@ -325,6 +335,23 @@ def file_density(doc, pts):
     return out
 
 
+def file_to_pyscf_map(doc, mol):
+    """T with (file's basis functions) = (PySCF's AOs) @ T, fitted by least squares at
+    points around each nucleus on three scales (tight, valence, diffuse), and the worst
+    residual of the fit relative to each function's largest value. A residual at
+    rounding level says the file's functions span exactly PySCF's basis (same
+    exponents and contractions); T then carries PySCF's overlap integrals over to the
+    file's functions: S_file = T^T S T."""
+    rng = np.random.default_rng(7)
+    pos = mol.atom_coords()
+    pts = np.vstack([p + scale * rng.standard_normal((400, 3)) for p in pos for scale in (0.15, 0.7, 2.5)])
+    mine = file_basis_values(doc, pts)
+    theirs = numint.eval_ao(mol, pts)
+    t = np.linalg.lstsq(theirs, mine, rcond=None)[0]
+    residual = np.max(np.abs(theirs @ t - mine), axis=0) / np.max(np.abs(mine), axis=0)
+    return t, float(np.max(residual))
+
+
 def sample_points(doc, rng):
     """Half uniform in the molecule's box padded by 3 bohr, half within ~0.8 bohr of
     the nuclei (where core and polarisation functions matter)."""
@@ -356,7 +383,8 @@ def run_lobecast(exe, case, work):
         cmd += ["--functions", case.functions]
     proc = subprocess.run(cmd, capture_output=True, text=True)
     if proc.returncode != 0:
-        raise RuntimeError(f"{' '.join(cmd)} exited {proc.returncode}:\n{proc.stderr.strip()}")
+        err = "\n".join(proc.stderr.strip().splitlines()[:6])
+        raise RuntimeError(f"{' '.join(cmd)} exited {proc.returncode}:\n{err}")
     return json.loads(out.read_text())
 
 
@@ -433,6 +461,15 @@ def compare(case, doc, ref, rng):
         c.close("eps_occ", occupied, ref_occ, TOL["orbital_energy"])
         k = min(VIRTUALS, len(ref_vir))
         c.close("eps_vir", virtual[:k], ref_vir[:k], TOL["orbital_energy"])
+
+    # The file's basis is PySCF's basis (span), each function normalised to 1 under
+    # PySCF's overlap integrals, and the orbitals (virtuals too) orthonormal.
+    t, residual = file_to_pyscf_map(doc, mol)
+    c.close("basis_fit", residual, 0.0, TOL["basis_fit"])
+    s_file = t.T @ mol.intor_symmetric("int1e_ovlp") @ t
+    c.close("norm", np.diag(s_file), np.ones(len(s_file)), TOL["orthonormal"])
+    for _, _, coef in sets:
+        c.close("orthonormal", coef @ s_file @ coef.T, np.eye(len(coef)), TOL["orthonormal"])
 
     # Properties.
     props = doc["properties"]
