@@ -400,6 +400,7 @@ class Checker:
         if got.shape != want.shape:
             self.failures.append(f"{key}: {got.shape[0]} values, PySCF has {want.shape[0]}")
             return
+        got, want = got.ravel(), want.ravel()
         dev = float(np.max(np.abs(got - want))) if got.size else 0.0
         self.worst[key] = max(self.worst.get(key, 0.0), dev)
         if not dev <= tol:
