@@ -413,10 +413,7 @@ class Checker:
             self.failures.append(message)
 
 
-def expected_origin(case, doc):
-    """The documented dipole origin: centre of nuclear charge for ions, else (0,0,0)."""
-    if case.charge == 0:
-        return np.zeros(3)
+def centre_of_nuclear_charge(doc):
     z = np.array([a["atomic_number"] for a in doc["atoms"]], dtype=float)
     pos = np.array([a["position"] for a in doc["atoms"]], dtype=float)
     return z @ pos / z.sum()
@@ -428,7 +425,9 @@ def compare(case, doc, ref, rng):
     # Header and geometry.
     c.require(doc.get("format") == "lobecast-orbitals" and doc.get("version") == 2,
               f"format/version {doc.get('format')!r}/{doc.get('version')!r}")
-    c.require(str(doc.get("method", "")).lower() == case.method, f"method {doc.get('method')!r}")
+    # "method" is free text (e.g. "rhf, sto-3g"): it must name the method.
+    c.require(case.method in str(doc.get("method", "")).lower().replace(",", " ").split(),
+              f"method {doc.get('method')!r} does not name {case.method}")
     c.require(doc.get("charge") == case.charge and doc.get("multiplicity") == case.multiplicity,
               f"charge/multiplicity {doc.get('charge')}/{doc.get('multiplicity')}")
     c.require([a["element"] for a in doc["atoms"]] == [a[0] for a in case.atoms], "atom elements differ")
@@ -476,7 +475,10 @@ def compare(case, doc, ref, rng):
     props = doc["properties"]
     c.close("mulliken", props["mulliken_charges"], ref["mulliken"], TOL["mulliken"])
     origin = np.asarray(props["dipole"]["origin"], dtype=float)
-    c.close("dipole_origin", origin, expected_origin(case, doc), 1e-10)
+    # An ion's dipole depends on the origin: the documented one is the centre of
+    # nuclear charge. A neutral molecule's does not, so any stated origin will do.
+    if case.charge != 0:
+        c.close("dipole_origin", origin, centre_of_nuclear_charge(doc), 1e-10)
     c.close("dipole", props["dipole"]["au"], pyscf_dipole(ref, origin), TOL["dipole"])
     s2 = props.get("s_squared")
     if case.method == "uhf":
