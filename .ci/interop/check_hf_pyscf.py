@@ -203,20 +203,24 @@ def pyscf_solve(case):
     mf.max_cycle = 200
     mf.kernel()
     # Follow internal instabilities down to a stable solution, so that the reference
-    # is a true local minimum (the UHF ground state for the open shells here).
+    # is a true local minimum, not a saddle point that depends on the first guess
+    # (for the molecules here PySCF's first solution is already stable; O2 triplet
+    # in STO-3G would be one that is not: 1.3 mhartree above the stable UHF).
+    unstable = []
     for _ in range(3):
         mo, _, stable, _ = mf.stability(return_status=True)
         if stable:
             break
+        unstable.append(mf.e_tot)
         mf.kernel(mf.make_rdm1(mo, mf.mo_occ))
     if not mf.converged:
         raise RuntimeError(f"{case.name}: PySCF SCF did not converge")
-    return mol, mf
+    return mol, mf, unstable
 
 
 def pyscf_reference(case):
-    mol, mf = pyscf_solve(case)
-    ref = {"mol": mol, "mf": mf, "e_tot": mf.e_tot, "e_nuc": mol.energy_nuc(), "nao": mol.nao_nr()}
+    mol, mf, unstable = pyscf_solve(case)
+    ref = {"unstable": unstable, "mol": mol, "mf": mf, "e_tot": mf.e_tot, "e_nuc": mol.energy_nuc(), "nao": mol.nao_nr()}
     if case.method == "rhf":
         occ = [(mf.mo_energy, mf.mo_occ > 0)]
         ref["dm_spin"] = [mf.make_rdm1()]
@@ -534,6 +538,9 @@ def main():
             continue
         worst = "  ".join(f"{k} {v:.1e}" for k, v in c.worst.items() if k not in ("electrons",))
         print(f"{label:32} {'ok  ' if not c.failures else 'FAIL'} E={ref['e_tot']:.10f}  {worst}")
+        for e in ref["unstable"]:
+            print(f"    note: PySCF's first solution, E = {e:.10f}, was internally unstable; "
+                  "the reference is the stable one below it")
         for f in c.failures:
             print(f"    {f}")
         if c.failures:
