@@ -51,7 +51,7 @@ def pyscf_child(xyz_path):
     """Runs in the child: RHF/6-31G* on the XYZ; prints {"energy", "scf_seconds"}."""
     from pyscf import gto, scf
 
-    from check_hf_pyscf import BOHR_ANGSTROM, bse_basis_for_pyscf
+    from hf_pyscf_reference import BOHR_ANGSTROM, bse_basis_for_pyscf
 
     rows = Path(xyz_path).read_text().splitlines()[2:]
     atoms = [(s, (float(x), float(y), float(z))) for s, x, y, z in (r.split() for r in rows if r.strip())]

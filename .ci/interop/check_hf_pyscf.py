@@ -12,7 +12,7 @@ Compared (tolerances, see TOL): total energy, nuclear repulsion, orbital
 energies (occupied and the lowest virtuals, per spin), Mulliken charges, the
 dipole about the origin the file states, UHF <S^2>, and the electron density
 at 2000 points, evaluated from the orbital file's own basis entries and
-coefficients by a small numpy/scipy evaluator written here (a second
+coefficients by a small numpy/scipy evaluator (hf_orbital_file.py, a second
 implementation of the file's documented conventions) against PySCF's density
 from its own SCF. Also: the file's basis functions span exactly PySCF's basis
 (a least-squares map between the two sets of function values), and under
@@ -32,24 +32,17 @@ from dataclasses import dataclass
 from pathlib import Path
 
 import numpy as np
-from scipy import special
 
 import basis_set_exchange as bse
 import pyscf
-from pyscf import gto, scf
-from pyscf.dft import numint
 
-# CODATA 2018 Bohr radius in ångström (NIST CODATA 2018: 0.529 177 210 903(80) e-10 m),
-# the constant lobecast converts XYZ ångström with. PySCF's own constant is the 2010
-# value (0.52917721092), 3e-11 relative away: enough to move the nuclear repulsion of
-# O2 by ~1e-9 hartree, beyond the 1e-10 tolerance. So PySCF gets the same ångström
-# coordinates with this constant as its unit (PySCF's `unit` accepts a number: the
-# Bohr radius in the input's unit), i.e. the same bohr positions as lobecast.
-BOHR_ANGSTROM = 0.529177210903
+from hf_orbital_file import file_density, file_orbital_sets
+from hf_pyscf_reference import (BOHR_ANGSTROM, file_to_pyscf_map, pyscf_density, pyscf_dipole,
+                                pyscf_reference)
 
 # Tolerances (absolute, atomic units).
 TOL = {
-    # Brief's targets. Energies are second order in the density error, so an SCF
+    # Energies are second order in the density error, so an SCF
     # stopped at an RMS commutator of 1e-7 (lobecast's documented default) is far
     # inside 1e-8 hartree; the nuclear repulsion is closed-form from the positions.
     "energy": 1e-8,
@@ -86,11 +79,6 @@ VIRTUALS = 5
 POINTS = 2000
 
 SYMBOLS = "H He Li Be B C N O F Ne Na Mg Al Si P S Cl Ar".split()
-# Pople sets are used with Cartesian d (6d) by default, cc-pVDZ with pure d (5d):
-# the contract of `lobecast solve --basis`, and the sets' usual definitions.
-CARTESIAN_BY_DEFAULT = {"sto-3g": True, "3-21g": True, "6-31g": True, "6-31g*": True,
-                        "6-31g**": True, "cc-pvdz": False}
-
 
 @dataclass
 class Case:
@@ -164,196 +152,6 @@ CASES = [
     Case("O2 triplet", "uhf", "6-31g", 0, 3, diatomic("O", "O", 1.2075),
          "CCCBDB experimental r 1.2075 A (from memory)"),
 ]
-
-
-# ---------------------------------------------------------------------------
-# PySCF side
-
-
-def bse_basis_for_pyscf(name, symbols):
-    """The basis from basis-set-exchange (NWChem format), parsed by PySCF, per element."""
-    out = {}
-    for sym in sorted(set(symbols)):
-        text = bse.get_basis(name, elements=[sym], fmt="nwchem", header=False)
-        out[sym] = gto.basis.parse(text, symb=sym, optimize=False)
-    return out
-
-
-def uses_cartesian(case):
-    if case.functions is not None:
-        return case.functions == "cartesian"
-    return CARTESIAN_BY_DEFAULT[case.basis]
-
-
-def pyscf_solve(case):
-    """PySCF's molecule and converged SCF (internal stability checked) for one case."""
-    mol = gto.Mole()
-    mol.atom = [(s, (x, y, z)) for s, x, y, z in case.atoms]
-    mol.basis = bse_basis_for_pyscf(case.basis, [a[0] for a in case.atoms])
-    # Pople sets: cart=True (Cartesian d), cc-pVDZ: cart=False (pure), unless the
-    # case asks lobecast for the other kind with --functions.
-    mol.cart = uses_cartesian(case)
-    mol.charge = case.charge
-    mol.spin = case.multiplicity - 1
-    mol.verbose = 0
-    mol.build(unit=BOHR_ANGSTROM)  # ångström input, CODATA 2018 (see BOHR_ANGSTROM)
-    mf = scf.RHF(mol) if case.method == "rhf" else scf.UHF(mol)
-    mf.conv_tol = 1e-12
-    mf.conv_tol_grad = 1e-9
-    mf.max_cycle = 200
-    mf.kernel()
-    # Follow internal instabilities down to a stable solution, so that the reference
-    # is a true local minimum, not a saddle point that depends on the first guess
-    # (for the molecules here PySCF's first solution is already stable; O2 triplet
-    # in STO-3G would be one that is not: 1.3 mhartree above the stable UHF).
-    unstable = []
-    for _ in range(3):
-        mo, _, stable, _ = mf.stability(return_status=True)
-        if stable:
-            break
-        unstable.append(mf.e_tot)
-        mf.kernel(mf.make_rdm1(mo, mf.mo_occ))
-    if not mf.converged:
-        raise RuntimeError(f"{case.name}: PySCF SCF did not converge")
-    return mol, mf, unstable
-
-
-def pyscf_reference(case):
-    mol, mf, unstable = pyscf_solve(case)
-    ref = {"unstable": unstable, "mol": mol, "mf": mf, "e_tot": mf.e_tot, "e_nuc": mol.energy_nuc(), "nao": mol.nao_nr()}
-    if case.method == "rhf":
-        occ = [(mf.mo_energy, mf.mo_occ > 0)]
-        ref["dm_spin"] = [mf.make_rdm1()]
-        ref["s2"] = 0.0
-    else:
-        occ = [(mf.mo_energy[s], mf.mo_occ[s] > 0) for s in (0, 1)]
-        ref["dm_spin"] = list(mf.make_rdm1())
-        ref["s2"] = mf.spin_square()[0]
-    ref["levels"] = [(np.sort(e[o]), np.sort(e[~o])) for e, o in occ]
-    ref["mulliken"] = np.asarray(mf.mulliken_pop(verbose=0)[1])
-    return ref
-
-
-def pyscf_dipole(ref, origin):
-    """Dipole (au) about `origin` from PySCF's density: -tr(D r) + sum Z (R - origin)."""
-    mol = ref["mol"]
-    dm = sum(ref["dm_spin"])
-    with mol.with_common_orig(origin):
-        r = mol.intor_symmetric("int1e_r", comp=3)
-    electronic = -np.einsum("xij,ji->x", r, dm)
-    nuclear = np.einsum("a,ax->x", mol.atom_charges(), mol.atom_coords() - np.asarray(origin))
-    return electronic + nuclear
-
-
-def pyscf_density(ref, pts):
-    """PySCF's density per spin (one entry, the total, for RHF) at points in bohr."""
-    ao = numint.eval_ao(ref["mol"], pts)
-    return [numint.eval_rho(ref["mol"], ao, dm) for dm in ref["dm_spin"]]
-
-
-# ---------------------------------------------------------------------------
-# Independent evaluator of the orbital file (numpy/scipy only, not PySCF)
-
-
-def complex_ylm(l, m, theta, phi):
-    """Y_l^m (theta polar, phi azimuth) with the Condon-Shortley phase, from scipy."""
-    if hasattr(special, "sph_harm_y"):
-        return special.sph_harm_y(l, m, theta, phi)
-    return special.sph_harm(m, l, phi, theta)
-
-
-def real_ylm(l, m, x, y, z):
-    """Real spherical harmonic normalised on the sphere, without the Condon-Shortley
-    phase: m > 0 cosine type, m < 0 sine type, both with a positive leading term
-    (p: m = -1, 0, 1 is y, z, x; d: m = -2..2 is xy, yz, 3z^2-r^2, xz, x^2-y^2)."""
-    r = np.sqrt(x * x + y * y + z * z)
-    r = np.where(r == 0.0, 1e-300, r)
-    theta = np.arccos(np.clip(z / r, -1.0, 1.0))
-    phi = np.arctan2(y, x)
-    if m == 0:
-        return complex_ylm(l, 0, theta, phi).real
-    c = complex_ylm(l, abs(m), theta, phi) * (-1) ** abs(m)  # remove (-1)^m
-    return math.sqrt(2.0) * (c.real if m > 0 else c.imag)
-
-
-def odd_double_factorial(k):
-    """(2k-1)!! with (-1)!! = 1."""
-    return math.prod(range(1, 2 * k, 2))
-
-
-def basis_function_values(entry, centre, pts):
-    """One basis entry of the orbital file at points (bohr), normalised to 1 as the
-    file's conventions say: normalised primitives, contraction renormalised."""
-    if entry.get("type") != "gaussian":
-        raise ValueError(f"unexpected basis entry type {entry.get('type')!r}")
-    d = pts - np.asarray(centre, dtype=float)
-    x, y, z = d[:, 0], d[:, 1], d[:, 2]
-    r2 = x * x + y * y + z * z
-    prims = [(float(a), float(c)) for a, c in entry["primitives"]]
-    if "powers" in entry:
-        a, b, c = entry["powers"]
-        l = a + b + c
-        # Each Cartesian component x^a y^b z^c exp(-al r^2) normalised on its own.
-        angular = x**a * y**b * z**c / math.sqrt(
-            odd_double_factorial(a) * odd_double_factorial(b) * odd_double_factorial(c))
-
-        def norm(al):
-            return (2 * al / math.pi) ** 0.75 * (4 * al) ** (l / 2)
-    else:
-        l, m = entry["l"], entry["m"]
-        angular = np.sqrt(r2) ** l * real_ylm(l, m, x, y, z)
-
-        def norm(al):  # r^l exp(-al r^2) normalised on the radial measure r^2 dr
-            return math.sqrt(2 * (2 * al) ** (l + 1.5) / math.gamma(l + 1.5))
-    # Overlap of two normalised primitives of the same angular part.
-    self_overlap = sum(ci * cj * (2 * math.sqrt(ai * aj) / (ai + aj)) ** (l + 1.5)
-                       for ai, ci in prims for aj, cj in prims)
-    radial = sum(ci * norm(ai) * np.exp(-ai * r2) for ai, ci in prims)
-    return radial * angular / math.sqrt(self_overlap)
-
-
-def file_basis_values(doc, pts):
-    centres = [a["position"] for a in doc["atoms"]]
-    return np.stack([basis_function_values(e, centres[e["atom"]], pts) for e in doc["basis"]], axis=1)
-
-
-def file_orbital_sets(doc):
-    """[(energies, occupations, coefficient matrix)] per spin (one set for RHF)."""
-    keys = ["orbitals"] if "orbitals" in doc else ["orbitals_alpha", "orbitals_beta"]
-    out = []
-    for k in keys:
-        orbs = doc[k]
-        out.append((np.array([o["energy"] for o in orbs], dtype=float),
-                    np.array([o["occupation"] for o in orbs], dtype=float),
-                    np.array([o["coefficients"] for o in orbs], dtype=float)))
-    return out
-
-
-def file_density(doc, pts):
-    """Density per spin set from the file's basis and coefficients (numpy/scipy only)."""
-    phi = file_basis_values(doc, pts)
-    out = []
-    for _, occ, coef in file_orbital_sets(doc):
-        psi = phi @ coef.T
-        out.append(psi**2 @ occ)
-    return out
-
-
-def file_to_pyscf_map(doc, mol):
-    """T with (file's basis functions) = (PySCF's AOs) @ T, fitted by least squares at
-    points around each nucleus on three scales (tight, valence, diffuse), and the worst
-    residual of the fit relative to each function's largest value. A residual at
-    rounding level says the file's functions span exactly PySCF's basis (same
-    exponents and contractions); T then carries PySCF's overlap integrals over to the
-    file's functions: S_file = T^T S T."""
-    rng = np.random.default_rng(7)
-    pos = mol.atom_coords()
-    pts = np.vstack([p + scale * rng.standard_normal((400, 3)) for p in pos for scale in (0.15, 0.7, 2.5)])
-    mine = file_basis_values(doc, pts)
-    theirs = numint.eval_ao(mol, pts)
-    t = np.linalg.lstsq(theirs, mine, rcond=None)[0]
-    residual = np.max(np.abs(theirs @ t - mine), axis=0) / np.max(np.abs(mine), axis=0)
-    return t, float(np.max(residual))
 
 
 def sample_points(doc, rng):
