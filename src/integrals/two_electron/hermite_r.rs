@@ -127,6 +127,18 @@ impl RScratch {
         debug_assert!(l <= MAX_R);
         let r2 = pq[0] * pq[0] + pq[1] * pq[1] + pq[2] * pq[2];
         boys(alpha * r2, &mut self.f[..=l]);
+        // The two smallest orders, most of the primitive quartets of a contracted
+        // basis, written out.
+        if l == 0 {
+            self.a[0] = scale * self.f[0];
+            return &self.a[..1];
+        }
+        if l == 1 {
+            let r1 = -2.0 * alpha * scale * self.f[1];
+            // Compact order of degree 1 is (1,0,0), (0,1,0), (0,0,1).
+            self.a[..4].copy_from_slice(&[scale * self.f[0], pq[0] * r1, pq[1] * r1, pq[2] * r1]);
+            return &self.a[..4];
+        }
         let mut pow = [0.0; MAX_R + 1];
         pow[0] = scale;
         for n in 0..l {

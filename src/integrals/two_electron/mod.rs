@@ -9,10 +9,10 @@
 
 mod accumulate;
 pub mod direct;
-pub mod hermite_r;
+mod hermite_r;
 pub mod packed;
-pub mod pair;
-pub mod quartet;
+mod pair;
+mod quartet;
 pub mod screen;
 
 pub use direct::DirectJk;
