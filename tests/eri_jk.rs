@@ -2,7 +2,7 @@
 //! quadruple sum, the Schwarz inequality, dipole integrals against closed forms,
 //! and refusals of what the engine cannot treat.
 
-use lobecast::basis::{Basis, BasisSpec, GaussianShell, Shell, SlaterShell};
+use lobecast::basis::{Angular, Basis, BasisSpec, GaussianShell, Shell, SlaterShell};
 use lobecast::chem::Molecule;
 use lobecast::error::Kind;
 use lobecast::integrals::dipole_matrices;
@@ -241,7 +241,15 @@ fn unsupported_input_is_an_input_error() {
         name: "g".into(),
         shells: vec![Shell::Gaussian(g)],
     };
-    for b in [&slater, &mixed, &high] {
+    // Eleven functions on an f shell: GaussianShell::new accepts repeated ones.
+    let mut fs: Vec<Angular> = (-3..=3).map(Angular::Pure).collect();
+    fs.extend((-3..=0).map(Angular::Pure));
+    let crowded = GaussianShell::new(0, [0.0; 3], 3, vec![(1.0, 1.0)], fs).unwrap();
+    let crowded = Basis {
+        name: "f".into(),
+        shells: vec![Shell::Gaussian(crowded)],
+    };
+    for b in [&slater, &mixed, &high, &crowded] {
         let kinds = [
             PackedEri::build(b, 1e-12, &mut |_| {})
                 .err()

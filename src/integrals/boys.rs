@@ -40,6 +40,26 @@ const TABLE_TMAX: f64 = 40.0;
 const TABLE_ORDERS: usize = TABLE_NMAX + TAYLOR;
 const TABLE_POINTS: usize = (TABLE_TMAX / TABLE_STEP) as usize + 1;
 
+/// 1/k and 1/(2k − 1): multiplications instead of divisions on the hot path.
+const INV: [f64; TAYLOR] = {
+    let mut v = [0.0; TAYLOR];
+    let mut k = 1;
+    while k < TAYLOR {
+        v[k] = 1.0 / k as f64;
+        k += 1;
+    }
+    v
+};
+const INV_ODD: [f64; TABLE_NMAX + 1] = {
+    let mut v = [0.0; TABLE_NMAX + 1];
+    let mut k = 1;
+    while k <= TABLE_NMAX {
+        v[k] = 1.0 / (2 * k - 1) as f64;
+        k += 1;
+    }
+    v
+};
+
 /// F_k(i·step) for k < `TABLE_ORDERS`, point-major.
 static TABLE: std::sync::LazyLock<Vec<f64>> = std::sync::LazyLock::new(|| {
     let mut table = vec![0.0; TABLE_POINTS * TABLE_ORDERS];
@@ -60,15 +80,16 @@ pub fn boys(t: f64, out: &mut [f64]) {
         let i = (t * (1.0 / TABLE_STEP) + 0.5) as usize;
         let row = &TABLE[i * TABLE_ORDERS..(i + 1) * TABLE_ORDERS];
         let x = i as f64 * TABLE_STEP - t;
-        let mut s = row[nmax + TAYLOR - 1];
+        let top = &row[nmax..nmax + TAYLOR];
+        let mut s = top[TAYLOR - 1];
         for k in (0..TAYLOR - 1).rev() {
-            s = row[nmax + k] + s * x / (k + 1) as f64;
+            s = top[k] + s * x * INV[k + 1];
         }
         out[nmax] = s;
         if nmax > 0 {
             let e = (-t).exp();
             for n in (1..=nmax).rev() {
-                out[n - 1] = (2.0 * t * out[n] + e) / (2 * n - 1) as f64;
+                out[n - 1] = (2.0 * t * out[n] + e) * INV_ODD[n];
             }
         }
         return;

@@ -9,6 +9,7 @@ use nalgebra::DMatrix;
 use rayon::prelude::*;
 
 use super::accumulate::{Acc, chunk_count, density_slices, split_by_weight};
+use super::packed::PRIMITIVE_SHARE;
 use super::pair::ShellPair;
 use super::quartet::{Scratch, contract};
 use super::screen::{canonical_pairs, pair_bounds};
@@ -95,7 +96,12 @@ impl TwoElectron for DirectJk {
                             if self.q[ab] * self.q[cd] * dens_max < self.threshold {
                                 continue;
                             }
-                            let block = contract(&self.pairs[ab], &self.pairs[cd], &mut scratch);
+                            let block = contract(
+                                &self.pairs[ab],
+                                &self.pairs[cd],
+                                self.threshold * PRIMITIVE_SHARE / dens_max,
+                                &mut scratch,
+                            );
                             let s = [a, b, c, d].map(|s| (self.offsets[s], self.sizes[s]));
                             accumulate(&mut acc, &dens, block, s);
                         }

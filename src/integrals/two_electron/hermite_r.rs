@@ -33,11 +33,15 @@ const NP: usize = nherm(MAX_PAIR);
 /// (lowered by two; any valid index when `coef` is 0).
 #[derive(Clone, Copy)]
 struct Step {
-    dir: usize,
-    from: usize,
-    from2: usize,
     coef: f64,
+    from: u16,
+    from2: u16,
+    dir: u8,
 }
+
+/// Work buffers are a power of two long so that masked indices need no bounds
+/// checks in the recursion (every index is below `NR` anyway).
+const BUF: usize = NR.next_power_of_two();
 
 pub(crate) struct Tables {
     /// (t, u, v) of each compact index, ordered by t + u + v.
@@ -84,9 +88,9 @@ pub(crate) static TABLES: LazyLock<Tables> = LazyLock::new(|| {
                 0
             };
             Step {
-                dir,
-                from: at(down),
-                from2,
+                dir: dir as u8,
+                from: at(down) as u16,
+                from2: from2 as u16,
                 coef: k as f64,
             }
         })
@@ -106,16 +110,16 @@ pub const SUM_STRIDE: usize = NP;
 
 /// Work space for one thread: two recurrence levels and the Boys values.
 pub struct RScratch {
-    a: [f64; NR],
-    b: [f64; NR],
+    a: [f64; BUF],
+    b: [f64; BUF],
     f: [f64; MAX_R + 1],
 }
 
 impl Default for RScratch {
     fn default() -> Self {
         RScratch {
-            a: [0.0; NR],
-            b: [0.0; NR],
+            a: [0.0; BUF],
+            b: [0.0; BUF],
             f: [0.0; MAX_R + 1],
         }
     }
@@ -127,18 +131,33 @@ impl RScratch {
         debug_assert!(l <= MAX_R);
         let r2 = pq[0] * pq[0] + pq[1] * pq[1] + pq[2] * pq[2];
         boys(alpha * r2, &mut self.f[..=l]);
+        // The two smallest orders, most of the primitive quartets of a contracted
+        // basis, written out.
+        if l == 0 {
+            self.a[0] = scale * self.f[0];
+            return &self.a[..1];
+        }
+        if l == 1 {
+            let r1 = -2.0 * alpha * scale * self.f[1];
+            // Compact order of degree 1 is (1,0,0), (0,1,0), (0,0,1).
+            self.a[..4].copy_from_slice(&[scale * self.f[0], pq[0] * r1, pq[1] * r1, pq[2] * r1]);
+            return &self.a[..4];
+        }
         let mut pow = [0.0; MAX_R + 1];
         pow[0] = scale;
         for n in 0..l {
             pow[n + 1] = pow[n] * (-2.0 * alpha);
         }
         let steps = &TABLES.steps;
+        let pq4 = [pq[0], pq[1], pq[2], 0.0];
         let (mut cur, mut next) = (&mut self.a, &mut self.b);
         cur[0] = pow[l] * self.f[l];
         for n in (0..l).rev() {
             next[0] = pow[n] * self.f[n];
-            for (i, s) in steps.iter().enumerate().take(nherm(l - n)).skip(1) {
-                next[i] = pq[s.dir] * cur[s.from] + s.coef * cur[s.from2];
+            let m = nherm(l - n).min(BUF);
+            for (x, s) in next[1..m].iter_mut().zip(&steps[1..m]) {
+                *x = pq4[s.dir as usize & 3] * cur[s.from as usize & (BUF - 1)]
+                    + s.coef * cur[s.from2 as usize & (BUF - 1)];
             }
             std::mem::swap(&mut cur, &mut next);
         }

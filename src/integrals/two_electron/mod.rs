@@ -9,10 +9,10 @@
 
 mod accumulate;
 pub mod direct;
-pub mod hermite_r;
+mod hermite_r;
 pub mod packed;
-pub mod pair;
-pub mod quartet;
+mod pair;
+mod quartet;
 pub mod screen;
 
 pub use direct::DirectJk;
@@ -39,8 +39,10 @@ pub trait TwoElectron: Sync {
     fn describe(&self) -> String;
 }
 
-/// Refuses what the kernel cannot treat, as input errors: l > 3 and shells whose
-/// public fields disagree with each other (hand-built, not from `GaussianShell::new`).
+/// Refuses what the kernel cannot treat, as input errors: l > 3, more functions
+/// than Cartesian components (they cannot be independent; the kernel's work arrays
+/// are sized for (l+1)(l+2)/2 per shell), and shells whose public fields disagree
+/// with each other (hand-built, not from `GaussianShell::new`).
 pub(crate) fn check_shell(g: &GaussianShell) -> Result<()> {
     if g.l as usize > MAX_L {
         return Err(Error::input(format!(
@@ -51,7 +53,8 @@ pub(crate) fn check_shell(g: &GaussianShell) -> Result<()> {
     let ncart = ((g.l + 1) * (g.l + 2) / 2) as usize;
     let consistent = !g.exponents.is_empty()
         && g.exponents.len() == g.d.len()
-        && g.rows.len() <= 2 * ncart
+        && g.rows.len() <= ncart
+        && g.rows.len() == g.functions.len()
         && g.rows.iter().all(|r| r.len() == ncart)
         && g.exponents.iter().all(|a| a.is_finite() && *a > 0.0)
         && g.d.iter().all(|d| d.is_finite())
@@ -59,7 +62,7 @@ pub(crate) fn check_shell(g: &GaussianShell) -> Result<()> {
     if !consistent {
         return Err(Error::input(format!(
             "a Gaussian shell (l = {}) on atom {} is inconsistent: exponents, \
-             coefficients and angular rows do not match",
+             coefficients and angular rows do not match, or it has more than {ncart} functions",
             g.l, g.atom
         )));
     }

@@ -20,6 +20,12 @@ use crate::basis::Basis;
 use crate::budget;
 use crate::error::{Error, Result};
 
+/// Primitive quartets are dropped below this fraction of the quartet threshold.
+/// Their bound is rigorous, so an integral moves by at most threshold × 1e-3 ×
+/// its number of primitive quartets (1296 for four 6-primitive s shells: about
+/// the threshold itself, the size of what Schwarz screening drops anyway).
+pub(crate) const PRIMITIVE_SHARE: f64 = 1e-3;
+
 /// The unique electron-repulsion integrals of a basis of n functions.
 pub struct PackedEri {
     n: usize,
@@ -79,7 +85,12 @@ impl PackedEri {
                             if q[ab] * q[cd] < threshold {
                                 continue;
                             }
-                            let block = contract(&pairs[ab], &pairs[cd], scratch);
+                            let block = contract(
+                                &pairs[ab],
+                                &pairs[cd],
+                                threshold * PRIMITIVE_SHARE,
+                                scratch,
+                            );
                             let shells4 = [a, b, c, d].map(|s| (offsets[s], sizes[s]));
                             store(block, shells4, start, out);
                         }

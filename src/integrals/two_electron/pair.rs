@@ -21,6 +21,9 @@ const PRIMITIVE_CUTOFF: f64 = 1e-20;
 pub(crate) struct Primitive {
     pub p: f64,
     pub center: [f64; 3],
+    /// max over function products of √(ρ|ρ) for this primitive pair alone: the
+    /// Schwarz bound of its share of any integral.
+    pub bound: f64,
 }
 
 /// The expansion of one ordered shell pair (a, b).
@@ -33,7 +36,8 @@ pub struct ShellPair {
     /// nherm(l).
     pub(crate) nh: usize,
     pub(crate) prims: Vec<Primitive>,
-    /// Per primitive pair nh × nf, Hermite-major: E^{ab}_h / p (bra use).
+    /// Per primitive pair nf × nh, function-major (each product's Hermite
+    /// coefficients contiguous, for dot products): E^{ab}_h / p (bra use).
     pub(crate) e: Vec<f64>,
     /// The same times (−1)^(t+u+v) (ket use).
     pub(crate) e_ket: Vec<f64>,
@@ -117,7 +121,7 @@ impl ShellPair {
                     }
                     for (fa, ra) in a.rows.iter().enumerate() {
                         for fb in 0..nb {
-                            out[h * nf + fa * nb + fb] = ra
+                            out[(fa * nb + fb) * nh + h] = ra
                                 .iter()
                                 .enumerate()
                                 .map(|(i, r)| r * half[i * nb + fb])
@@ -127,16 +131,16 @@ impl ShellPair {
                 }
                 let center =
                     std::array::from_fn(|k| (alpha * a.center[k] + beta * b.center[k]) / p);
-                prims.push(Primitive { p, center });
+                prims.push(Primitive {
+                    p,
+                    center,
+                    bound: f64::INFINITY,
+                });
             }
         }
         let e_ket = e
-            .chunks_exact(nf.max(1))
-            .enumerate()
-            .flat_map(|(row, vals)| {
-                let s = signs[row % nh];
-                vals.iter().map(move |v| s * v)
-            })
+            .chunks_exact(nh)
+            .flat_map(|vals| vals.iter().zip(&signs).map(|(v, s)| s * v))
             .collect();
         ShellPair {
             l,
@@ -145,6 +149,39 @@ impl ShellPair {
             prims,
             e,
             e_ket,
+        }
+        .sorted_by_bound()
+    }
+
+    /// Fills every primitive pair's Schwarz bound and orders the primitive pairs by
+    /// it, largest first, so the kernel can stop at the first negligible one.
+    fn sorted_by_bound(mut self) -> ShellPair {
+        let block = self.nf * self.nh;
+        let mut scratch = super::quartet::Scratch::default();
+        for (k, prim) in self.prims.iter_mut().enumerate() {
+            let one = ShellPair {
+                l: self.l,
+                nf: self.nf,
+                nh: self.nh,
+                prims: vec![*prim],
+                e: self.e[k * block..(k + 1) * block].to_vec(),
+                e_ket: self.e_ket[k * block..(k + 1) * block].to_vec(),
+            };
+            prim.bound = super::quartet::self_bound(&one, &mut scratch);
+        }
+        let mut order: Vec<usize> = (0..self.prims.len()).collect();
+        order.sort_by(|&i, &j| self.prims[j].bound.total_cmp(&self.prims[i].bound));
+        let pick = |v: &[f64]| -> Vec<f64> {
+            order
+                .iter()
+                .flat_map(|&k| v[k * block..(k + 1) * block].iter().copied())
+                .collect()
+        };
+        ShellPair {
+            prims: order.iter().map(|&k| self.prims[k]).collect(),
+            e: pick(&self.e),
+            e_ket: pick(&self.e_ket),
+            ..self
         }
     }
 

@@ -6,7 +6,7 @@ use nalgebra::DMatrix;
 use rayon::prelude::*;
 
 use super::pair::ShellPair;
-use super::quartet::{Scratch, contract};
+use super::quartet::{Scratch, self_bound};
 use super::{gaussian_shells, tri};
 use crate::basis::{Basis, GaussianShell};
 use crate::budget;
@@ -37,13 +37,7 @@ pub(crate) fn canonical_pairs(shells: &[&GaussianShell]) -> Result<Vec<ShellPair
 pub(crate) fn pair_bounds(pairs: &[ShellPair]) -> Vec<f64> {
     pairs
         .par_iter()
-        .map_init(Scratch::default, |scratch, p| {
-            let block = contract(p, p, scratch);
-            (0..p.nf)
-                .map(|k| block[k * p.nf + k])
-                .fold(0.0f64, f64::max)
-                .sqrt()
-        })
+        .map_init(Scratch::default, |scratch, p| self_bound(p, scratch))
         .collect()
 }
 
