@@ -3,19 +3,15 @@
 //! direct builder's setup and one J/K, each for two basis sets:
 //!
 //! * `sto-3g+d`: STO-3G plus one Cartesian d shell (α = 0.8) per carbon, 72
-//!   functions (the brief's stand-in while no 6-31G* set is in the tree);
-//! * `6-31G*-like`: the 6-31G exponents and contractions of C and H typed from
-//!   memory (Hehre, Ditchfield, Pople, J. Chem. Phys. 56, 2257 (1972)) plus a
-//!   Cartesian d (α = 0.8) on C, 102 functions: for timing only, not a reference.
+//!   functions;
+//! * `6-31g*`: the named set (basis-set-exchange data), Cartesian d, 102 functions.
 //!
 //! Geometry: examples/benzene.xyz (Gauss & Stanton, J. Phys. Chem. A 104, 2865
 //! (2000); from memory). The density is a random symmetric matrix, so density
 //! screening removes nothing: the direct timing is the worst case of an SCF step.
 
-use std::collections::BTreeMap;
 use std::time::Instant;
 
-use lobecast::basis::sets::ShellSpec;
 use lobecast::basis::{Basis, BasisSpec, GaussianShell, Shell};
 use lobecast::chem::{LengthUnit, Molecule};
 use lobecast::integrals::two_electron::{DirectJk, PackedEri, TwoElectron};
@@ -42,55 +38,6 @@ fn with_carbon_d(m: &Molecule, mut basis: Basis) -> Basis {
         }
     }
     basis
-}
-
-fn spec(l: u32, prims: &[[f64; 2]], cartesian: bool) -> ShellSpec {
-    ShellSpec {
-        l,
-        primitives: prims.to_vec(),
-        cartesian,
-    }
-}
-
-/// 6-31G* shapes for C and H (numbers from memory; see the top of the file).
-fn six_31g_star_like(m: &Molecule) -> Basis {
-    let c_core = [
-        [3047.5249, 0.0018347],
-        [457.36952, 0.0140373],
-        [103.94869, 0.0688426],
-        [29.210155, 0.2321844],
-        [9.2866630, 0.4679413],
-        [3.1639270, 0.3623120],
-    ];
-    let c_sp_exp = [7.8682724, 1.8812885, 0.5442493];
-    let c_s = [-0.1193324, -0.1608542, 1.1434564];
-    let c_p = [0.0689991, 0.3164240, 0.7443083];
-    let zip = |e: &[f64], c: &[f64]| -> Vec<[f64; 2]> {
-        e.iter().zip(c).map(|(e, c)| [*e, *c]).collect()
-    };
-    let carbon = vec![
-        spec(0, &c_core, false),
-        spec(0, &zip(&c_sp_exp, &c_s), false),
-        spec(1, &zip(&c_sp_exp, &c_p), false),
-        spec(0, &[[0.1687144, 1.0]], false),
-        spec(1, &[[0.1687144, 1.0]], false),
-        spec(2, &[[0.8, 1.0]], true),
-    ];
-    let hydrogen = vec![
-        spec(
-            0,
-            &[
-                [18.731137, 0.0334946],
-                [2.8253937, 0.23472695],
-                [0.6401217, 0.81375733],
-            ],
-            false,
-        ),
-        spec(0, &[[0.1612778, 1.0]], false),
-    ];
-    let mut s = BasisSpec::named("custom");
-    s.shells = BTreeMap::from([("C".to_string(), carbon), ("H".to_string(), hydrogen)]);
-    s.build(m).unwrap()
 }
 
 fn median3(mut f: impl FnMut() -> f64) -> f64 {
@@ -132,7 +79,7 @@ fn main() {
             "sto-3g+d",
             with_carbon_d(&m, BasisSpec::named("sto-3g").build(&m).unwrap()),
         ),
-        ("6-31G*-like", six_31g_star_like(&m)),
+        ("6-31g*", BasisSpec::named("6-31g*").build(&m).unwrap()),
     ];
     for (name, basis) in sets {
         let n = basis.len();
