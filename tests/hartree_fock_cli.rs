@@ -239,3 +239,41 @@ fn functions_override_changes_the_d_shell() {
     );
     assert!(cart.contains("25 basis functions"), "{cart}");
 }
+
+/// An all-electron deformation density peaks at the nuclei; `--limit` ends the
+/// colour scale where the bonds show, and says so. A bad limit is refused first.
+#[test]
+fn slice_limit_sets_the_colour_range() {
+    let d = dir();
+    write_file(d.path(), "w.xyz", WATER);
+    let base = [
+        "slice",
+        "w.xyz",
+        "--method",
+        "rhf",
+        "--basis",
+        "sto-3g",
+        "--field",
+        "deformation",
+        "--plane",
+        "xz",
+        "--size",
+        "400",
+    ];
+    let mut args = base.to_vec();
+    args.extend(["--limit", "0.1", "--png", "d.png"]);
+    let out = ok(d.path(), &args);
+    assert!(
+        out.contains("colour range -1.000000e-1 to 1.000000e-1"),
+        "{out}"
+    );
+    let mut bad = base.to_vec();
+    bad.extend(["--limit", "-2", "--png", "e.png"]);
+    let o = run(d.path(), &bad);
+    assert_input_error(
+        d.path(),
+        &o,
+        "--limit takes a positive value",
+        &["d.png", "w.xyz"],
+    );
+}

@@ -36,7 +36,8 @@ pub struct LevelsArgs {
     /// Energy unit of the axis and the window: ev or hartree
     #[arg(long, default_value = "ev")]
     pub unit: String,
-    /// Energies shown, LOW,HIGH in --unit [default: the frontier levels]
+    /// Energies shown, LOW,HIGH in --unit [default: the frontier levels; core levels
+    /// below −3 hartree are left out]
     #[arg(long, allow_hyphen_values = true, value_name = "LOW,HIGH")]
     pub window: Option<String>,
     /// Levels shown below the HOMO and above the LUMO when no --window is given, 0 to 10000

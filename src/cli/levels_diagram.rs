@@ -9,6 +9,10 @@ use lobecast::render::text::formula_markup;
 use lobecast::solve::OrbitalSet;
 use lobecast::solve::fragments::Fragment;
 
+/// Levels below this (hartree) are core levels, left out of the default window
+/// (common practice: valence levels of H–Ar lie above about −2 hartree).
+const CORE_LEVEL: f64 = -3.0;
+
 /// Every (molecular orbital, fragment orbital) pair with its weight; energies in
 /// the shortest form that reads back to the same number.
 pub(super) fn csv_text(set: &OrbitalSet, frags: &[Fragment], w: &[Vec<Vec<f64>>]) -> String {
@@ -110,7 +114,12 @@ pub(super) fn diagram(
         })
         .collect();
     let window = req.window.unwrap_or_else(|| {
-        let first = homo.map_or(0, |h| h.saturating_sub(req.around));
+        let mut first = homo.map_or(0, |h| h.saturating_sub(req.around));
+        // Core levels (below CORE_LEVEL) stay out of the default window: in an
+        // all-electron set they would squeeze the valence levels into a sliver.
+        while first < homo.unwrap_or(0) && mol[first].energy < to_unit(CORE_LEVEL) {
+            first += 1;
+        }
         let last = lumo.saturating_add(req.around).min(mol.len() - 1);
         let (mut lo, mut hi) = (mol[first].energy, mol[last].energy);
         for l in links

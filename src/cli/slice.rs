@@ -99,6 +99,12 @@ pub struct SliceArgs {
         allow_negative_numbers = true
     )]
     pub log: Option<f64>,
+    /// The end of the colour scale, in the field's unit: ±V for signed fields, 0 to V
+    /// otherwise; values beyond are drawn in the end colours and contours follow
+    /// (default: the largest |value| on the map). For all-electron deformation
+    /// densities, whose core values dwarf the bonds, try 0.1
+    #[arg(long, value_name = "V", allow_negative_numbers = true)]
+    pub limit: Option<f64>,
     /// Show atom numbers beside the element symbols
     #[arg(long)]
     pub numbers: bool,
@@ -220,6 +226,14 @@ fn read_request(args: &SliceArgs) -> Result<Request> {
         return Err(Error::input(format!(
             "--log takes {MIN_DECADES} to 12 decades, got {}",
             super::common::shown(d)
+        )));
+    }
+    if let Some(v) = args.limit
+        && !(v.is_finite() && v > 0.0 && v < 1e300)
+    {
+        return Err(Error::input(format!(
+            "--limit takes a positive value in the field's unit, got {}",
+            super::common::shown(v)
         )));
     }
     let extent = args
@@ -354,6 +368,12 @@ fn footnotes(args: &SliceArgs, fields: &[Field], source: &Source, plane: &Plane)
     if args.shared_scale {
         footnotes.push("All panels share one colour scale.".to_string());
     }
+    if let Some(v) = args.limit {
+        footnotes.push(format!(
+            "Colours end at {} (--limit): larger values are drawn in the end colours.",
+            super::common::shown(v)
+        ));
+    }
     footnotes
 }
 
@@ -368,6 +388,7 @@ fn style(args: &SliceArgs, request: &Request) -> Style {
         },
         scale: request.scale,
         log_decades: args.log,
+        limit: args.limit,
         contours: request.contours.clone(),
         zero_contour: args.zero_contour,
         nuclei: true,

@@ -354,7 +354,7 @@ fn orbital_info(set: &OrbitalSet, field: &Field) -> Result<FieldInfo> {
             "deformation density".to_string(),
         ),
         Field::SpinDensity => (
-            "spin density ρ_α − ρ_β".to_string(),
+            "spin density ρ_{α} − ρ_{β}".to_string(),
             "ρ_{α} − ρ_{β}".to_string(),
             "spin density".to_string(),
         ),

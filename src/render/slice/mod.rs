@@ -76,6 +76,9 @@ pub struct Style {
     pub scale: Option<Scale>,
     /// Logarithmic mapping over this many decades (non-negative fields only).
     pub log_decades: Option<f64>,
+    /// The end of the colour scale (±limit for signed fields) instead of each
+    /// map's largest |value|; values beyond take the end colours.
+    pub limit: Option<f64>,
     pub contours: Contours,
     pub zero_contour: bool,
     pub nuclei: bool,
@@ -92,6 +95,7 @@ impl Default for Style {
             background: Colour::WHITE,
             scale: None,
             log_decades: None,
+            limit: None,
             contours: Contours::Auto(4),
             zero_contour: false,
             nuclei: true,
@@ -482,8 +486,16 @@ fn shared_mapping(
             .filter(|(_, b)| !**b)
             .flat_map(|(v, _)| v.iter().copied())
             .collect();
-        mapping_for(&all, fig.panels[0].signed, log_for(style, &fig.panels[0]))
+        mapping_of(style, &fig.panels[0], &all)
     })
+}
+
+/// The panel's mapping: over its values, or ending at the style's limit.
+pub(super) fn mapping_of(style: &Style, panel: &Panel, values: &[f64]) -> Mapping {
+    match style.limit {
+        Some(l) => mapping_for(&[l], panel.signed, log_for(style, panel)),
+        None => mapping_for(values, panel.signed, log_for(style, panel)),
+    }
 }
 
 /// The title centred at the top and the footnotes under the last row of maps.

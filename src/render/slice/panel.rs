@@ -43,7 +43,7 @@ pub(super) fn draw_panel(
     let mx = (frame.cell_x(col) + s.left).round();
     let my = (frame.top + row as f32 * frame.row_h + frame.head).round();
     let scale = scale_for(style, panel);
-    let mapping = shared.unwrap_or_else(|| mapping_for(vals, panel.signed, log_for(style, panel)));
+    let mapping = shared.unwrap_or_else(|| super::mapping_of(style, panel, vals));
     let zero = scale.at(mapping.t(0.0));
     paint_map(c, vals, (mx, my), nx, |v| {
         if blank { zero } else { scale.at(mapping.t(v)) }
