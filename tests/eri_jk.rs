@@ -171,7 +171,7 @@ fn build_reports_progress_and_sizes() {
     assert_eq!(PackedEri::bytes_for(usize::MAX), None);
     assert_eq!(PackedEri::bytes_for(1 << 17), None); // 2^65 values
     assert!(PackedEri::bytes_for(1 << 14).is_some());
-    assert!(eri.describe().starts_with("in-core ERIs"));
+    assert!(eri.describe().starts_with("stored in memory"));
 }
 
 #[test]

@@ -35,7 +35,7 @@ pub trait TwoElectron: Sync {
     /// If a density is not n × n for the basis the implementor was built for (a
     /// programming error, not user input).
     fn jk(&self, densities: &[&DMatrix<f64>]) -> Vec<(DMatrix<f64>, DMatrix<f64>)>;
-    /// One line for logs, e.g. "in-core ERIs (12.3 M values, 98 MB)".
+    /// One line for reports, e.g. "stored in memory (13.8 million unique integrals, 105 MiB)".
     fn describe(&self) -> String;
 }
 

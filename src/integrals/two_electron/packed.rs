@@ -200,9 +200,14 @@ impl TwoElectron for PackedEri {
 
     fn describe(&self) -> String {
         let bytes = self.values.len() as f64 * 8.0;
+        let n = self.values.len();
+        let count = if n >= 100_000 {
+            format!("{:.1} million", n as f64 / 1e6)
+        } else {
+            n.to_string()
+        };
         format!(
-            "in-core ERIs ({:.1} M values, {})",
-            self.values.len() as f64 / 1e6,
+            "stored in memory ({count} unique integrals, {})",
             budget::show_bytes(bytes)
         )
     }
