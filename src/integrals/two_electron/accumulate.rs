@@ -113,3 +113,13 @@ pub(super) fn split_by_weight(weights: &[f64], m: usize) -> Vec<std::ops::Range<
     }
     out
 }
+
+/// Sums the per-thread accumulators and finishes J and K (the one reduction both
+/// J/K builders share).
+pub fn combine(parts: &[Acc], n: usize, nd: usize) -> Vec<(DMatrix<f64>, DMatrix<f64>)> {
+    let mut total = Acc::new(n, nd);
+    for p in parts {
+        total.add_from(p);
+    }
+    total.finish()
+}

@@ -110,11 +110,7 @@ impl TwoElectron for DirectJk {
                 acc
             })
             .collect();
-        let mut total = Acc::new(n, dens.len());
-        for p in &parts {
-            total.add_from(p);
-        }
-        total.finish()
+        super::accumulate::combine(&parts, n, dens.len())
     }
 
     fn describe(&self) -> String {

@@ -191,11 +191,7 @@ impl TwoElectron for PackedEri {
                 acc
             })
             .collect();
-        let mut total = Acc::new(n, dens.len());
-        for p in &parts {
-            total.add_from(p);
-        }
-        total.finish()
+        super::accumulate::combine(&parts, n, dens.len())
     }
 
     fn describe(&self) -> String {
