@@ -277,3 +277,28 @@ fn slice_limit_sets_the_colour_range() {
         &["d.png", "w.xyz"],
     );
 }
+
+/// A model file names the method, the set, its form and the multiplicity itself;
+/// here the O₂ triplet by UHF (multiplicity in [molecule], pure d by `functions`).
+#[test]
+fn model_file_names_method_basis_and_multiplicity() {
+    let d = dir();
+    let model = "[molecule]\nmultiplicity = 3\natoms = [{ element = \"O\", position = [0, 0, 0] }, { element = \"O\", position = [0, 0, 1.21] }]\n[basis]\nset = \"6-31g*\"\nfunctions = \"pure\"\n[orbitals]\nmethod = \"uhf\"\n";
+    write_file(d.path(), "o2.toml", model);
+    let out = ok(d.path(), &["solve", "o2.toml"]);
+    // 6-31G* O: 3s 2p 1d = 4 + 2·3 + 5 (pure) = 14 per atom (basis-set-exchange data).
+    assert!(out.contains("multiplicity 3, 28 basis functions"), "{out}");
+    assert!(out.contains("(9 alpha, 7 beta)"), "{out}");
+    // UHF on a triplet: ⟨S²⟩ at or above S(S+1) = 2 (a determinant's bound).
+    let s2: f64 = out
+        .split("<S^2> = ")
+        .nth(1)
+        .and_then(|t| t.split_whitespace().next())
+        .and_then(|v| v.parse().ok())
+        .unwrap();
+    assert!((2.0..2.1).contains(&s2), "{s2}");
+    let bad = model.replace("method = \"uhf\"", "method = \"one-electron\"");
+    write_file(d.path(), "bad.toml", &bad);
+    let o = run(d.path(), &["solve", "bad.toml"]);
+    assert_input_error(d.path(), &o, "multiplicity", &["bad.toml", "o2.toml"]);
+}
