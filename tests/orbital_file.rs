@@ -179,3 +179,56 @@ fn fractional_occupations_and_partial_files_invent_no_charge() {
     assert_eq!(set.molecule.formula_with_charge(), "FeTi");
     assert!(set.notes.iter().any(|n| n.contains("no charge is shown")));
 }
+
+/// An orbital file whose orbital is off 1 (here scaled by 1.3, ⟨ψ|ψ⟩ = 1.69): the
+/// reader warns, and `--renormalize` scales it so that ∫|ψ|² = 1 to 1e-3 on a
+/// 0.15-bohr grid (the definition; trapezoid sums of these wide Gaussians are
+/// spectrally accurate).
+#[test]
+fn renormalize_fixes_an_unnormalised_orbital() {
+    let d = tempfile::tempdir().unwrap();
+    // H atom, STO-3G 1s (exponents and coefficients: basis-set-exchange STO-3G H).
+    let text = r#"{"format": "lobecast-orbitals", "version": 1, "length_unit": "bohr", "energy_unit": "hartree",
+  "atoms": [{"element": "H", "atomic_number": 1, "position": [0.0, 0.0, 0.0]}],
+  "basis": [{"atom": 0, "type": "gaussian", "powers": [0, 0, 0],
+             "primitives": [[3.425250914, 0.1543289673], [0.6239137298, 0.5353281423], [0.168855404, 0.4446345422]]}],
+  "orbitals": [{"energy": -0.47, "occupation": 1.0, "coefficients": [1.3]}]}"#;
+    let path = common::write_file(d.path(), "h.json", text);
+    let out = common::run(d.path(), &["solve", "h.json"]);
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(
+        err.contains("warning:") && err.contains("orbitals[0] has ⟨ψ|ψ⟩ = 1.690000"),
+        "{err}"
+    );
+    let options = lobecast::io::model::LoadOptions {
+        renormalize: true,
+        ..Default::default()
+    };
+    let model = lobecast::io::model::load_with(&path, &options).unwrap();
+    let set = model.solve().unwrap();
+    assert!(
+        set.notes.iter().any(|n| n.contains("1 orbital(s) scaled")),
+        "{:?}",
+        set.notes
+    );
+    let s = FieldSampler::new(&set, &common::fields(&["orbital-density:1"])).unwrap();
+    let (h, half) = (0.15, 50i32);
+    let mut total = 0.0;
+    let mut v = vec![0.0; (2 * half as usize + 1).pow(2)];
+    for i in -half..=half {
+        let pts: Vec<[f64; 3]> = (-half..=half)
+            .flat_map(|j| (-half..=half).map(move |k| [i as f64 * h, j as f64 * h, k as f64 * h]))
+            .collect();
+        s.evaluate(&pts, &mut v);
+        total += v.iter().sum::<f64>();
+    }
+    let integral = total * h * h * h;
+    assert!((integral - 1.0).abs() < 1e-3, "∫|ψ|² = {integral}");
+    // Solved orbitals are normalised already: the flag is refused there.
+    let e =
+        lobecast::io::model::load_with(&common::example("h2-cation.toml"), &options).unwrap_err();
+    assert!(
+        e.message
+            .contains("--renormalize applies to orbitals read from a file")
+    );
+}

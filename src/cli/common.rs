@@ -40,6 +40,10 @@ pub struct XyzFlags {
     /// Hartree–Fock: the most SCF iterations before giving up [default: 128]
     #[arg(long, value_name = "N", allow_negative_numbers = true)]
     pub max_iterations: Option<i64>,
+    /// Orbitals read from a file: scale each to ⟨ψ|ψ⟩ = 1 for this run (a note says
+    /// how many were off and by how much)
+    #[arg(long)]
+    pub renormalize: bool,
     /// Unrestricted orbitals: the spin channel that orbital fields use [default: alpha]
     #[arg(long, value_name = "SPIN", value_parser = super::values::channel())]
     pub spin: Option<lobecast::solve::orbitals::Channel>,
@@ -78,6 +82,7 @@ impl XyzFlags {
             multiplicity,
             max_iterations,
             spin: self.spin,
+            renormalize: self.renormalize,
         })
     }
 }

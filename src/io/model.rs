@@ -92,6 +92,8 @@ pub struct LoadOptions {
     pub multiplicity: Option<u32>,
     /// Hartree–Fock: overrides the most SCF iterations (model file or default).
     pub max_iterations: Option<usize>,
+    /// Scale orbitals read from a file to ⟨ψ|ψ⟩ = 1 for this run.
+    pub renormalize: bool,
     /// The spin channel orbital fields use (unrestricted orbitals); not a property
     /// of the model, applied to the solved set by whoever solves it.
     pub spin: Option<crate::solve::orbitals::Channel>,
@@ -162,7 +164,26 @@ pub fn load(path: &Path) -> Result<Model> {
 
 /// Like `load`, and an `.xyz` path becomes a model with the method and charge of
 /// `options` (which only an XYZ file takes: a model file says them itself).
+/// `renormalize` scales orbitals read from a file to ⟨ψ|ψ⟩ = 1, with a note.
 pub fn load_with(path: &Path, options: &LoadOptions) -> Result<Model> {
+    let mut model = load_source(path, options)?;
+    if options.renormalize {
+        let Method::Given(set) = &mut model.method else {
+            return Err(Error::input(
+                "--renormalize applies to orbitals read from a file (an orbital file, or a model with method = \"file\"); solved orbitals are normalised already",
+            ));
+        };
+        let (fixed, worst) = set.renormalize()?;
+        if fixed > 0 {
+            set.notes.push(format!(
+                "{fixed} orbital(s) scaled to ⟨ψ|ψ⟩ = 1 for this run (--renormalize; the furthest from 1 had {worst:.6})"
+            ));
+        }
+    }
+    Ok(model)
+}
+
+fn load_source(path: &Path, options: &LoadOptions) -> Result<Model> {
     let is_xyz = path
         .extension()
         .is_some_and(|e| e.eq_ignore_ascii_case("xyz"));

@@ -192,6 +192,36 @@ impl OrbitalSet {
             .filter(|o| o.occupation != 0.0)
     }
 
+    /// Scales every orbital (both channels) to ⟨ψ|ψ⟩ = cᵀSc = 1. Returns how many
+    /// were off 1 by more than 1e-12 and the norm furthest from 1.
+    pub fn renormalize(&mut self) -> Result<(usize, f64)> {
+        let s = self.overlap.clone().ok_or_else(|| {
+            Error::input(
+                "cannot renormalise: lobecast has no overlap integrals for this basis (it mixes Slater and Gaussian functions, or has Slater functions beyond s and p)",
+            )
+        })?;
+        let (mut fixed, mut worst) = (0, 1.0f64);
+        let beta = self.spin.beta.iter_mut().flatten();
+        for o in self.orbitals.iter_mut().chain(beta) {
+            let c = nalgebra::DVector::from_column_slice(&o.coefficients);
+            let n = c.dot(&(&s * &c));
+            if !(n.is_finite() && n > 0.0) {
+                return Err(Error::input(format!(
+                    "cannot renormalise an orbital with ⟨ψ|ψ⟩ = {n:e}"
+                )));
+            }
+            if (n - 1.0).abs() > 1e-12 {
+                fixed += 1;
+                let k = 1.0 / n.sqrt();
+                o.coefficients.iter_mut().for_each(|v| *v *= k);
+            }
+            if (n - 1.0).abs() > (worst - 1.0).abs() {
+                worst = n;
+            }
+        }
+        Ok((fixed, worst))
+    }
+
     /// Every statement to print with the numbers: the caveats' text, then the notes.
     pub fn statements(&self) -> Vec<String> {
         self.caveats

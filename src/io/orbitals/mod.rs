@@ -538,7 +538,7 @@ pub fn norm_warning(
     }
     Ok(worst.map(|(i, n)| {
         format!(
-            "orbitals[{i}] has ⟨ψ|ψ⟩ = {n:.6} (the worst of {off} orbital(s) off 1 by more than {NORM_TOLERANCE:e}); the orbitals are used as given, so densities scale with ⟨ψ|ψ⟩"
+            "orbitals[{i}] has ⟨ψ|ψ⟩ = {n:.6} (the worst of {off} orbital(s) off 1 by more than {NORM_TOLERANCE:e}); the orbitals are used as given, so densities scale with ⟨ψ|ψ⟩ (--renormalize scales them to 1 for the run)"
         )
     }))
 }
