@@ -302,3 +302,47 @@ fn model_file_names_method_basis_and_multiplicity() {
     let o = run(d.path(), &["solve", "bad.toml"]);
     assert_input_error(d.path(), &o, "multiplicity", &["bad.toml", "o2.toml"]);
 }
+
+/// Both starting densities reach the same state (the SCF solution does not depend
+/// on where it starts, for a well-behaved closed shell): equal totals as printed
+/// (10 decimals); `--guess` is refused for a method without an SCF.
+#[test]
+fn both_starts_reach_the_same_energy() {
+    let d = dir();
+    write_file(d.path(), "w.xyz", WATER);
+    let total = |out: &str| -> String {
+        out.lines()
+            .find(|l| l.trim_start().starts_with("total"))
+            .and_then(|l| l.split_whitespace().nth(1))
+            .unwrap()
+            .to_string()
+    };
+    let atoms = ok(
+        d.path(),
+        &["solve", "w.xyz", "--method", "rhf", "--basis", "6-31g"],
+    );
+    let core = ok(
+        d.path(),
+        &[
+            "solve", "w.xyz", "--method", "rhf", "--basis", "6-31g", "--guess", "core",
+        ],
+    );
+    assert!(
+        atoms.contains("start: superposed spherical free atoms"),
+        "{atoms}"
+    );
+    assert!(core.contains("start: core Hamiltonian"), "{core}");
+    assert_eq!(total(&atoms), total(&core));
+    let o = run(
+        d.path(),
+        &[
+            "solve",
+            "w.xyz",
+            "--method",
+            "extended-huckel",
+            "--guess",
+            "core",
+        ],
+    );
+    assert_input_error(d.path(), &o, "--guess goes with Hartree–Fock", &["w.xyz"]);
+}

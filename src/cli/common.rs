@@ -40,6 +40,10 @@ pub struct XyzFlags {
     /// Hartree–Fock: the most SCF iterations before giving up [default: 128]
     #[arg(long, value_name = "N", allow_negative_numbers = true)]
     pub max_iterations: Option<i64>,
+    /// Hartree–Fock: the first density, from superposed spherical free atoms or from
+    /// the core Hamiltonian's orbitals [default: atoms]
+    #[arg(long, value_name = "START", value_parser = super::values::guess())]
+    pub guess: Option<lobecast::solve::scf::Guess>,
     /// Orbitals read from a file: scale each to ⟨ψ|ψ⟩ = 1 for this run (a note says
     /// how many were off and by how much)
     #[arg(long)]
@@ -83,6 +87,7 @@ impl XyzFlags {
             max_iterations,
             spin: self.spin,
             renormalize: self.renormalize,
+            guess: self.guess,
         })
     }
 }

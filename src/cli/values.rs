@@ -23,6 +23,10 @@ pub fn angular_form() -> impl TypedValueParser<Value = lobecast::basis::named::A
     choice(&["pure", "cartesian"])
 }
 
+pub fn guess() -> impl TypedValueParser<Value = lobecast::solve::scf::Guess> {
+    choice(&["atoms", "core"])
+}
+
 pub fn length_unit() -> impl TypedValueParser<Value = LengthUnit> {
     choice(&["angstrom", "bohr"])
 }

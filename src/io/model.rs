@@ -94,6 +94,8 @@ pub struct LoadOptions {
     pub max_iterations: Option<usize>,
     /// Scale orbitals read from a file to ⟨ψ|ψ⟩ = 1 for this run.
     pub renormalize: bool,
+    /// Hartree–Fock: how the first density is made (default: free atoms).
+    pub guess: Option<crate::solve::scf::Guess>,
     /// The spin channel orbital fields use (unrestricted orbitals); not a property
     /// of the model, applied to the solved set by whoever solves it.
     pub spin: Option<crate::solve::orbitals::Channel>,
@@ -167,6 +169,14 @@ pub fn load(path: &Path) -> Result<Model> {
 /// `renormalize` scales orbitals read from a file to ⟨ψ|ψ⟩ = 1, with a note.
 pub fn load_with(path: &Path, options: &LoadOptions) -> Result<Model> {
     let mut model = load_source(path, options)?;
+    if let Some(g) = options.guess {
+        let Method::HartreeFock { options: o, .. } = &mut model.method else {
+            return Err(Error::input(
+                "--guess goes with Hartree–Fock (--method rhf or uhf, or method = \"rhf\" in a model file)",
+            ));
+        };
+        o.guess = g;
+    }
     if options.renormalize {
         let Method::Given(set) = &mut model.method else {
             return Err(Error::input(

@@ -193,7 +193,7 @@ pub fn run(
         "the SCF did not converge in {} iterations: last ΔE = {delta:.3e} hartree (needs < {:.0e}), RMS commutator = {rms:.3e} (needs < {:.0e})",
         p.max_iterations, p.energy_tolerance, p.commutator_tolerance
     ))
-    .with_hint("raise --max-iterations, or check the geometry, charge and multiplicity"))
+    .with_hint("raise --max-iterations, try --guess core, or check the geometry, charge and multiplicity"))
 }
 
 /// The orbitals of the converged Fock matrices (no shift), with the energy parts.

@@ -49,6 +49,17 @@ pub enum Guess {
     Core,
 }
 
+impl std::str::FromStr for Guess {
+    type Err = String;
+    fn from_str(s: &str) -> std::result::Result<Self, String> {
+        match s.trim().to_ascii_lowercase().as_str() {
+            "atoms" => Ok(Guess::Atoms),
+            "core" => Ok(Guess::Core),
+            _ => Err(format!("unknown start {s:?}: use atoms or core")),
+        }
+    }
+}
+
 /// Everything the user may set about an SCF run.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ScfOptions {
