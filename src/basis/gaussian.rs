@@ -15,10 +15,38 @@ use std::f64::consts::PI;
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Angular {
-    /// Cartesian component with these powers.
+    /// Cartesian component with these powers, normalised as it stands.
     Cartesian([u32; 3]),
+    /// Cartesian component scaled like x^l of its shell (the convention QCSchema
+    /// documents take from the CCA standard): of a d shell, xx has norm 1 and xy 1/3.
+    /// Kept as read so a document's coefficients go back out unchanged.
+    CartesianShared([u32; 3]),
     /// Real solid harmonic of this m.
     Pure(i32),
+}
+
+impl Angular {
+    /// The factor s with φ(this) = s · φ(the same component normalised as it stands):
+    /// √(Π(2pᵢ−1)!! / (2l−1)!!) for a shared-scale component, 1 otherwise.
+    pub fn own_norm_factor(self) -> f64 {
+        match self {
+            Angular::CartesianShared(p) => {
+                let l = p.iter().sum::<u32>();
+                (p.iter().map(|&k| double_factorial_odd(k)).product::<f64>()
+                    / double_factorial_odd(l))
+                .sqrt()
+            }
+            _ => 1.0,
+        }
+    }
+
+    /// The Cartesian powers of a Cartesian component, either scaling.
+    pub fn powers(self) -> Option<[u32; 3]> {
+        match self {
+            Angular::Cartesian(p) | Angular::CartesianShared(p) => Some(p),
+            Angular::Pure(_) => None,
+        }
+    }
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -99,7 +127,7 @@ impl GaussianShell {
         for f in &functions {
             let mut row = vec![0.0; comps.len()];
             match *f {
-                Angular::Cartesian(p) => {
+                Angular::Cartesian(p) | Angular::CartesianShared(p) => {
                     if p.iter().sum::<u32>() != l {
                         return Err(Error::input(format!("powers {p:?} do not sum to l = {l}")));
                     }
@@ -107,7 +135,7 @@ impl GaussianShell {
                         .iter()
                         .position(|c| *c == p)
                         .expect("components cover every power triple");
-                    row[i] = 1.0
+                    row[i] = f.own_norm_factor()
                         / (double_factorial_odd(p[0])
                             * double_factorial_odd(p[1])
                             * double_factorial_odd(p[2]))

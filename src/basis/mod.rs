@@ -62,7 +62,9 @@ impl Shell {
             Shell::Gaussian(g) => {
                 let ang = match g.functions[k] {
                     Angular::Pure(m) => harmonics::harmonic_name(g.l, m).to_string(),
-                    Angular::Cartesian(p) => harmonics::cartesian_name(p),
+                    Angular::Cartesian(p) | Angular::CartesianShared(p) => {
+                        harmonics::cartesian_name(p)
+                    }
                 };
                 let amin = g.exponents.iter().cloned().fold(f64::INFINITY, f64::min);
                 match g.exponents.len() {
@@ -164,6 +166,21 @@ impl Basis {
         self.shells
             .iter()
             .flat_map(|s| (0..s.len()).map(move |k| (s.atom(), s.label(k))))
+            .collect()
+    }
+
+    /// Per function, the factor s with φ = s · (the same function normalised to 1):
+    /// 1 except for shared-scale Cartesian components (see `Angular`). A coefficient
+    /// c on φ is c·s on the normalised function.
+    pub fn function_factors(&self) -> Vec<f64> {
+        self.shells
+            .iter()
+            .flat_map(|s| -> Vec<f64> {
+                match s {
+                    Shell::Gaussian(g) => g.functions.iter().map(|f| f.own_norm_factor()).collect(),
+                    Shell::Slater(s) => vec![1.0; s.ms.len()],
+                }
+            })
             .collect()
     }
 

@@ -29,7 +29,7 @@ pub const ON_LINE_BOHR: f64 = 0.05;
 
 #[derive(Debug, Args)]
 pub struct ProfileArgs {
-    /// Model file (.toml), orbital file (.json), XYZ file (.xyz, with --method) or cube
+    /// Model file (.toml), orbital file or QCSchema result (JSON), XYZ file (.xyz, with --method) or cube
     /// file (.cube, .cube.gz)
     pub source: PathBuf,
     #[command(flatten)]

@@ -38,7 +38,7 @@ pub const MIN_DECADES: f64 = 0.1;
 
 #[derive(Debug, Args)]
 pub struct SliceArgs {
-    /// Model file (.toml), orbital file (.json), XYZ file (.xyz, with --method) or cube
+    /// Model file (.toml), orbital file or QCSchema result (JSON), XYZ file (.xyz, with --method) or cube
     /// file (.cube, .cube.gz)
     pub source: PathBuf,
     #[command(flatten)]

@@ -11,13 +11,18 @@ use lobecast::solve::{Method, MethodKind, OrbitalSet, degenerate, orbitals_repor
 
 #[derive(Debug, Args)]
 pub struct SolveArgs {
-    /// Model file (TOML), orbital file (.json), or XYZ file with --method
+    /// Model file (TOML), orbital source (a lobecast orbital file or a QCSchema
+    /// result with a wave function, told apart by content), or XYZ file with --method
     pub model: PathBuf,
     #[command(flatten)]
     pub xyz: XyzFlags,
     /// Write the orbitals as an orbital file (JSON, bohr and hartree)
     #[arg(long, value_name = "FILE")]
     pub json: Option<PathBuf>,
+    /// Write the orbitals as a QCSchema result document (qcschema_output version 1,
+    /// bohr and hartree; Gaussian basis sets only)
+    #[arg(long, value_name = "FILE")]
+    pub qcschema: Option<PathBuf>,
     /// Memory budget (e.g. 512M, 8G): a solve estimated to need more is refused
     /// before it starts
     #[arg(long, value_name = "SIZE", default_value = lobecast::budget::DEFAULT_MEMORY_TEXT, value_parser = lobecast::budget::parse_size)]
@@ -30,6 +35,19 @@ pub fn run(args: SolveArgs) -> Result<()> {
     // standard error, so the JSON on standard output stays parseable.
     let mut plan = lobecast::output::OutputPlan::new(&model.inputs);
     let json = plan.add_opt(args.json.as_deref(), false)?;
+    let qcschema = plan.add_opt(args.qcschema.as_deref(), false)?;
+    // A basis the schema cannot carry is refused before the solve, where it is known.
+    if qcschema.is_some() {
+        if let Some(b) = model.basis() {
+            if !b.all_gaussian() {
+                return Err(lobecast::error::Error::input(format!(
+                    "--qcschema cannot write these orbitals: the basis ({}) has Slater functions",
+                    b.name
+                ))
+                .with_hint("QCSchema documents carry Gaussian basis sets: use --method rhf/uhf or a Gaussian basis"));
+            }
+        }
+    }
     // A long solve (over about 1e11 operations) shows a spinner on standard error
     // when it is a terminal; a Hartree–Fock run shows its integrals and iterations.
     let mut spinner = None;
@@ -51,6 +69,9 @@ pub fn run(args: SolveArgs) -> Result<()> {
         s.finish_and_clear();
     }
     let set = set?;
+    if qcschema.is_some() {
+        lobecast::io::qcschema::check(&set)?;
+    }
     // The electrons the orbitals hold, as occupied: fractional occupations stay
     // fractional (an orbital file may carry them).
     let occupied: f64 = set.occupied().map(|o| o.occupation).sum();
@@ -89,6 +110,9 @@ pub fn run(args: SolveArgs) -> Result<()> {
             set.molecule.nuclear_repulsion()
         );
     }
+    if set.origin == MethodKind::File {
+        say!("{}", basis_summary(&set));
+    }
     if let Some(beta) = &set.spin.beta {
         say!("alpha orbitals:");
         print_out(&table(&set))?;
@@ -103,9 +127,17 @@ pub fn run(args: SolveArgs) -> Result<()> {
         print_out(&charges(&set, &q))?;
     }
     print_notes(&set.statements())?;
-    if let Some(slot) = json {
+    if json.is_some() || qcschema.is_some() {
+        let qc_text = qcschema
+            .map(|_| lobecast::io::qcschema::to_json(&set))
+            .transpose()?;
         let mut out = plan.open()?;
-        out.put(slot, lobecast::io::orbitals::to_json(&set).as_bytes())?;
+        if let Some(slot) = json {
+            out.put(slot, lobecast::io::orbitals::to_json(&set).as_bytes())?;
+        }
+        if let (Some(slot), Some(text)) = (qcschema, qc_text) {
+            out.put(slot, text.as_bytes())?;
+        }
         for name in out.commit()? {
             say!("wrote {name}");
         }
@@ -158,6 +190,55 @@ fn table(set: &OrbitalSet) -> String {
         );
     }
     t
+}
+
+/// "basis 6-31G*: 19 functions on 3 atoms (s 7, p 6, d 6 Cartesian)": what an
+/// orbital source's orbitals are made of.
+fn basis_summary(set: &OrbitalSet) -> String {
+    use lobecast::basis::{Angular, Shell};
+    let mut counts = [0usize; 4];
+    let mut forms = Vec::new();
+    let mut slater = 0;
+    for s in &set.basis.shells {
+        match s {
+            Shell::Gaussian(g) => {
+                counts[g.l as usize] += g.len();
+                if g.l >= 2 {
+                    let form = if matches!(g.functions[0], Angular::Pure(_)) {
+                        "pure"
+                    } else {
+                        "Cartesian"
+                    };
+                    if !forms.contains(&form) {
+                        forms.push(form);
+                    }
+                }
+            }
+            Shell::Slater(s) => slater += s.ms.len(),
+        }
+    }
+    let mut parts: Vec<String> = ["s", "p", "d", "f"]
+        .iter()
+        .zip(counts)
+        .filter(|(_, n)| *n > 0)
+        .map(|(l, n)| format!("{l} {n}"))
+        .collect();
+    if slater > 0 {
+        parts.push(format!("Slater {slater}"));
+    }
+    let forms = if forms.is_empty() {
+        String::new()
+    } else {
+        format!("; d/f {}", forms.join(" and "))
+    };
+    format!(
+        "basis {}: {} functions in {} shells on {} atoms ({}{forms})",
+        set.basis.name,
+        set.basis.len(),
+        set.basis.shells.len(),
+        set.molecule.atoms.len(),
+        parts.join(", ")
+    )
 }
 
 /// Mulliken charges per atom (valence electrons of the free atom minus the gross

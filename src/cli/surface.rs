@@ -27,7 +27,7 @@ pub const MIN_OPACITY: f64 = 0.05;
 
 #[derive(Debug, Args)]
 pub struct SurfaceArgs {
-    /// Model file (.toml), orbital file (.json), XYZ file (.xyz, with --method) or cube
+    /// Model file (.toml), orbital file or QCSchema result (JSON), XYZ file (.xyz, with --method) or cube
     /// file (.cube, .cube.gz)
     pub source: PathBuf,
     #[command(flatten)]

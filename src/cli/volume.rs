@@ -16,7 +16,7 @@ use lobecast::output::OutputPlan;
 
 #[derive(Debug, Args)]
 pub struct VolumeArgs {
-    /// Model file (TOML), orbital file (.json), or XYZ file with --method
+    /// Model file (TOML), orbital file or QCSchema result (JSON), or XYZ file with --method
     pub model: PathBuf,
     #[command(flatten)]
     pub xyz: XyzFlags,

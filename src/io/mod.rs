@@ -1,5 +1,5 @@
 //! File formats, one file each, each opening with its layout and its specification:
-//! model files (TOML), XYZ, the orbital file (JSON), cube files, surface meshes (glTF, PLY, OBJ), PNG.
+//! model files (TOML), XYZ, the orbital file (JSON), QCSchema results (JSON), cube files, surface meshes (glTF, PLY, OBJ), PNG.
 //! Reading gives
 //! plain data to the rooms below; nothing here solves or evaluates.
 
@@ -8,4 +8,5 @@ pub mod mesh;
 pub mod model;
 pub mod orbitals;
 pub mod png;
+pub mod qcschema;
 pub mod xyz;

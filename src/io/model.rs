@@ -233,6 +233,7 @@ fn load_source(path: &Path, options: &LoadOptions) -> Result<Model> {
     if path
         .extension()
         .is_some_and(|e| e.eq_ignore_ascii_case("json"))
+        || crate::io::orbitals::is_json_document(path)
     {
         return from_orbitals(path, vec![path.to_path_buf()]);
     }

@@ -109,15 +109,11 @@ impl Source {
             .extension()
             .map(|e| e.to_string_lossy().to_ascii_lowercase())
             .unwrap_or_default();
+        let json_doc =
+            !matches!(ext.as_str(), "cube" | "gz") && crate::io::orbitals::is_json_document(path);
         match ext.as_str() {
-            "toml" | "json" | "xyz" => {
-                let m = model::load_with(path, options)?;
-                let mut set = crate::solve::orbitals_within(&m.molecule, &m.method, memory, &mut |_| {})?;
-                if let Some(c) = options.spin {
-                    set.show(c)?;
-                }
-                Ok(Source::Orbitals { set, inputs: m.inputs })
-            }
+            _ if json_doc => Self::from_model(path, options, memory),
+            "toml" | "json" | "xyz" => Self::from_model(path, options, memory),
             "cube" | "gz" => {
                 let reader = CubeReader::open(path)?;
                 let kept = match fields {
@@ -141,11 +137,24 @@ impl Source {
                 Ok(Source::Volume { volume, molecule, inputs: vec![path.to_path_buf()] })
             }
             _ => Err(Error::input(format!(
-                "cannot use {} as a source: expected a model file (.toml), an orbital file (.json), an XYZ file with --method, or a cube file (.cube, .cube.gz)",
+                "cannot use {} as a source: expected a model file (.toml), an orbital file or QCSchema result (JSON), an XYZ file with --method, or a cube file (.cube, .cube.gz)",
                 path.display()
             ))
             .with_hint("e.g. examples/h2-cation.toml")),
         }
+    }
+
+    /// A model, orbital source or XYZ file, solved (or read) within `memory` bytes.
+    fn from_model(path: &Path, options: &model::LoadOptions, memory: u64) -> Result<Self> {
+        let m = model::load_with(path, options)?;
+        let mut set = crate::solve::orbitals_within(&m.molecule, &m.method, memory, &mut |_| {})?;
+        if let Some(c) = options.spin {
+            set.show(c)?;
+        }
+        Ok(Source::Orbitals {
+            set,
+            inputs: m.inputs,
+        })
     }
 
     /// Bytes the source holds for sampling (a cube's kept values; orbitals are small).

@@ -8,16 +8,18 @@ use std::path::Path;
 
 use serde::{Deserialize, Serialize};
 
-use crate::basis::{Basis, Shell};
+use crate::basis::Basis;
 use crate::chem::units::{BOHR_IN_ANGSTROM, HARTREE_IN_EV};
-use crate::chem::{Atom, Molecule, elements};
+use crate::chem::{Atom, elements};
 use crate::error::{Error, Result};
-use crate::solve::MethodKind;
 use crate::solve::orbitals::{Orbital, OrbitalSet};
 
+mod assemble;
 mod basis;
 mod write;
 
+use assemble::elements_check;
+pub use assemble::{Decoded, assemble, norm_warning};
 use basis::basis_shells;
 pub use write::to_json;
 
@@ -114,11 +116,61 @@ struct OrbitalEntry {
     coefficients: Vec<f64>,
 }
 
-/// Reads and validates an orbital file.
+/// The largest orbital document read (2 GiB): a 10 000-function set written in
+/// full takes about that much text, and parsing holds the text and its numbers.
+pub const MAX_DOCUMENT_BYTES: u64 = 2 << 30;
+
+/// Reads and validates an orbital source: a lobecast orbital file, or a QCSchema
+/// result document with a wave function (told apart by content, not by name).
 pub fn read(path: &Path) -> Result<OrbitalSet> {
-    let text = std::fs::read_to_string(path)
-        .map_err(|e| Error::reading(format!("orbital file {}", path.display()), e))?;
-    parse(&text, &path.display().to_string())
+    let what = format!("orbital file {}", path.display());
+    let file = std::fs::File::open(path).map_err(|e| Error::reading(&what, e))?;
+    let size = file.metadata().map_err(|e| Error::reading(&what, e))?.len();
+    if size > MAX_DOCUMENT_BYTES {
+        return Err(Error::input(format!(
+            "{}: {} is over the {} an orbital document may take",
+            path.display(),
+            crate::budget::show_bytes(size as f64),
+            crate::budget::show_bytes(MAX_DOCUMENT_BYTES as f64)
+        )));
+    }
+    // The text, plus its numbers as f64 (at most 4 bytes of text make one).
+    crate::budget::check_memory(
+        3.0 * size as f64,
+        crate::budget::DEFAULT_MEMORY,
+        &format!("reading {}", path.display()),
+    )?;
+    let mut text = String::new();
+    std::io::Read::read_to_string(
+        &mut std::io::Read::take(file, MAX_DOCUMENT_BYTES),
+        &mut text,
+    )
+    .map_err(|e| Error::reading(&what, e))?;
+    let name = path.display().to_string();
+    if crate::io::qcschema::schema_name(&text).is_some() {
+        return crate::io::qcschema::parse(&text, &name);
+    }
+    parse(&text, &name)
+}
+
+/// Whether a file holds a JSON document (an orbital file or a QCSchema result),
+/// whatever its name: its first non-blank byte opens an object. A model file (TOML)
+/// never starts with '{'.
+pub fn is_json_document(path: &Path) -> bool {
+    let mut head = [0u8; 256];
+    let Ok(mut f) = std::fs::File::open(path) else {
+        return false;
+    };
+    let n = std::io::Read::read(&mut f, &mut head).unwrap_or(0);
+    head[..n]
+        .iter()
+        .find(|b| !b.is_ascii_whitespace())
+        .is_some_and(|&b| b == b'{')
+}
+
+/// Atoms closer than 0.1 Å are refused (ghost centres excepted); `place` names atom i.
+pub fn check_atoms(atoms: &[Atom], place: impl Fn(usize) -> String) -> Result<()> {
+    elements_check(atoms, place)
 }
 
 pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
@@ -133,7 +185,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     let bad = |field: String, msg: String| Error::input(format!("{name}: {field}: {msg}"));
     let (length, energy) = units(&doc).map_err(|(f, m)| bad(f, m))?;
     let atoms = read_atoms(&doc.atoms, length).map_err(|(f, m)| bad(f, m))?;
-    elements_check(&atoms).map_err(|e| e.context(name))?;
+    elements_check(&atoms, |i| format!(", atoms[{i}]")).map_err(|e| e.context(name))?;
     let (list, beta_list) = channels(&doc).map_err(|(f, m)| bad(f, m))?;
     let nbf = doc.basis.len();
     let count = list.len() + beta_list.map_or(0, |b| b.len());
@@ -170,17 +222,12 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
     };
     let nbf = basis.len();
     let most = if beta_list.is_some() { 1.0 } else { 2.0 };
-    let mut orbitals =
+    let orbitals =
         read_orbitals(list, nbf, energy, most, list_name(&doc)).map_err(|(f, m)| bad(f, m))?;
-    let mut beta = beta_list
+    let beta = beta_list
         .map(|b| read_orbitals(b, nbf, energy, 1.0, "orbitals_beta"))
         .transpose()
         .map_err(|(f, m)| bad(f, m))?;
-    let electrons: f64 = orbitals
-        .iter()
-        .chain(beta.iter().flatten())
-        .map(|o| o.occupation)
-        .sum();
     let reference = doc.reference_occupations.clone();
     if let Some(r) = &reference {
         if r.len() != basis.len() || r.iter().any(|v| !(v.is_finite() && *v >= 0.0)) {
@@ -192,71 +239,6 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
                     r.len()
                 ),
             ));
-        }
-    }
-    // A valence-only set counts the neutral atoms' valence electrons, not Z.
-    let nuclear: f64 = match &reference {
-        Some(r) => r.iter().sum(),
-        None => atoms.iter().map(Atom::charge).sum(),
-    };
-    // Version 1 states no charge: it is inferred from the occupations, and shown in
-    // titles only when they add up to a whole number of electrons and the charge is
-    // one an ion plausibly carries (|q| ≤ MAX_SHOWN_CHARGE); a larger one almost
-    // always means a file of valence or active orbitals only, not a highly charged ion.
-    let inferred = (nuclear - electrons).round();
-    let whole = (electrons - electrons.round()).abs() <= 1e-6;
-    // Version 2 may state the charge: it must agree with the occupations.
-    if let Some(q) = doc.charge {
-        if !whole || (f64::from(q) - (nuclear - electrons)).abs() > 1e-6 {
-            return Err(bad(
-                "charge".into(),
-                format!(
-                    "{q} disagrees with the occupations, which hold {electrons} electrons against a nuclear charge of {nuclear}"
-                ),
-            ));
-        }
-    }
-    let plausible = doc.charge.is_some() || inferred.abs() <= MAX_SHOWN_CHARGE;
-    let mut molecule = Molecule::new(atoms, inferred as i32).map_err(|e| e.context(name))?;
-    molecule.charge_known = whole && plausible;
-    // Our own caveats come back as data; other notes stay text.
-    let (caveats, mut notes): (Vec<_>, Vec<_>) = doc
-        .notes
-        .iter()
-        .partition(|n| crate::solve::Caveat::from_text(n).is_some());
-    let caveats: Vec<crate::solve::Caveat> = caveats
-        .into_iter()
-        .filter_map(|n| crate::solve::Caveat::from_text(n))
-        .collect();
-    let mut notes: Vec<String> = notes.drain(..).cloned().collect();
-    if whole && !plausible {
-        notes.push(format!(
-            "the occupations hold {} electrons against a nuclear charge of {}; taking the file to hold part of the orbitals only, no charge is shown",
-            electrons.round(),
-            nuclear
-        ));
-    }
-    crate::solve::estimate::check_primitive_pairs(&basis).map_err(|e| e.context(name))?;
-    let overlap = overlap_for(&molecule, &basis);
-    match &overlap {
-        Some(s) => {
-            if let Some(w) = norm_warning(s, &orbitals).map_err(|(i, n)| {
-                bad(
-                    format!("orbitals[{i}].coefficients"),
-                    format!("⟨ψ|ψ⟩ = {n:.3e}: the orbital vanishes (numerically zero)"),
-                )
-            })? {
-                eprintln!("warning: {name}: {w}");
-            }
-        }
-        None => eprintln!(
-            "note: {name}: lobecast has no overlap integrals for this basis (it mixes Slater and Gaussian functions, or has Slater functions beyond s and p), so the orbitals' normalisation is not checked"
-        ),
-    }
-    for list in std::iter::once(&mut orbitals).chain(beta.iter_mut()) {
-        if list.windows(2).any(|w| w[1].energy < w[0].energy) {
-            list.sort_by(|a, b| a.energy.total_cmp(&b.energy));
-            notes.push("the orbitals were renumbered in increasing energy".into());
         }
     }
     if let Some(m) = doc.multiplicity {
@@ -275,37 +257,26 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             return Err(bad(field.into(), "not a finite number".into()));
         }
     }
-    let method = doc.method.unwrap_or_else(|| format!("orbital file {name}"));
-    // The file's method text, read once here: lobecast's own extended-Hückel files
-    // say so, and their energies are meant in eV.
-    let origin = if method.starts_with("extended Hückel") {
-        MethodKind::ExtendedHuckel
-    } else {
-        MethodKind::File
-    };
-    // 1e-6 of the unit the energies are meant in: eV for extended Hückel or a file
-    // written in eV, hartree otherwise.
-    let in_ev = origin == MethodKind::ExtendedHuckel || doc.energy_unit == "ev";
-    let mut set = OrbitalSet {
-        molecule,
-        basis,
-        overlap,
-        orbitals,
-        origin,
-        method,
-        caveats,
-        notes,
-        reference,
-        degeneracy: crate::solve::degenerate::tolerance(in_ev),
-        spin: crate::solve::orbitals::Spin {
+    let list = list_name(&doc);
+    assemble(
+        Decoded {
+            atoms,
+            basis,
+            alpha: orbitals,
             beta,
+            charge: doc.charge,
             multiplicity: doc.multiplicity,
             total_energy: doc.total_energy.map(|e| e * energy),
-            ..Default::default()
+            method: doc.method,
+            notes: doc.notes,
+            reference,
+            energy_in_ev: doc.energy_unit == "ev",
+            orbital_name: Box::new(move |beta, i| {
+                format!("{}[{i}]", if beta { "orbitals_beta" } else { list })
+            }),
         },
-    };
-    crate::solve::degenerate::canonicalise(&mut set);
-    Ok(set)
+        name,
+    )
 }
 
 /// The error of one field: its path in the file and what is wrong with it.
@@ -492,55 +463,6 @@ fn read_orbitals(
         ));
     }
     Ok(orbitals)
-}
-
-/// Atoms closer than 0.1 Å are refused (ghost centres excepted), named by their
-/// index in the file.
-fn elements_check(atoms: &[Atom]) -> Result<()> {
-    crate::chem::molecule::check_separations(atoms, |i| format!(", atoms[{i}]"))
-}
-
-/// The overlap matrix where lobecast has the integrals: all-Gaussian bases, 1s Slater
-/// functions of equal exponents, and Slater s and p functions.
-fn overlap_for(molecule: &Molecule, basis: &Basis) -> Option<nalgebra::DMatrix<f64>> {
-    crate::integrals::overlap_matrix(molecule, basis).or_else(|| {
-        basis
-            .shells
-            .iter()
-            .all(|s| matches!(s, Shell::Slater(_)))
-            .then(|| crate::integrals::slater_overlap_matrix(basis).ok())
-            .flatten()
-    })
-}
-
-/// ⟨ψ|ψ⟩ = cᵀSc of every orbital (in file order). `Err((i, n))` for a vanishing
-/// orbital (n ≤ 1e-12); otherwise a warning naming the worst orbital when any is
-/// further than `NORM_TOLERANCE` from 1.
-pub fn norm_warning(
-    s: &nalgebra::DMatrix<f64>,
-    orbitals: &[Orbital],
-) -> std::result::Result<Option<String>, (usize, f64)> {
-    let mut worst: Option<(usize, f64)> = None;
-    let mut off = 0;
-    for (i, o) in orbitals.iter().enumerate() {
-        let c = nalgebra::DVector::from_column_slice(&o.coefficients);
-        let n = c.dot(&(s * &c));
-        if n.is_nan() || n <= 1e-12 {
-            return Err((i, n));
-        }
-        let d = (n - 1.0).abs();
-        if d > NORM_TOLERANCE {
-            off += 1;
-            if worst.is_none_or(|(_, w)| d > (w - 1.0).abs()) {
-                worst = Some((i, n));
-            }
-        }
-    }
-    Ok(worst.map(|(i, n)| {
-        format!(
-            "orbitals[{i}] has ⟨ψ|ψ⟩ = {n:.6} (the worst of {off} orbital(s) off 1 by more than {NORM_TOLERANCE:e}); the orbitals are used as given, so densities scale with ⟨ψ|ψ⟩ (--renormalize scales them to 1 for the run)"
-        )
-    }))
 }
 
 /// serde_json appends " at line L column C"; we print the position first instead.

@@ -30,7 +30,7 @@ pub fn to_json(set: &OrbitalSet) -> String {
             Shell::Gaussian(g) => basis.extend(g.functions.iter().map(|f| {
                 let primitives = g.primitives.iter().map(|&(a, c)| [a, c]).collect();
                 match *f {
-                    Angular::Cartesian(p) => BasisEntry::Gaussian {
+                    Angular::Cartesian(p) | Angular::CartesianShared(p) => BasisEntry::Gaussian {
                         atom: g.atom,
                         powers: Some(p),
                         l: None,
@@ -53,12 +53,20 @@ pub fn to_json(set: &OrbitalSet) -> String {
     let one_electron = set.origin == MethodKind::OneElectron;
     let enn = set.molecule.nuclear_repulsion();
     let shift = if one_electron { enn } else { 0.0 };
+    // The file's Cartesian functions are each normalised: shared-scale ones (read
+    // from a QCSchema document) carry their factor into the coefficients.
+    let factors = set.basis.function_factors();
     let entries = |list: &[crate::solve::Orbital]| -> Vec<OrbitalEntry> {
         list.iter()
             .map(|o| OrbitalEntry {
                 energy: o.energy - shift,
                 occupation: o.occupation,
-                coefficients: o.coefficients.clone(),
+                coefficients: o
+                    .coefficients
+                    .iter()
+                    .zip(&factors)
+                    .map(|(c, f)| c * f)
+                    .collect(),
             })
             .collect()
     };

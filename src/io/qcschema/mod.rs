@@ -1,0 +1,167 @@
+//! QCSchema result documents (MolSSI's open JSON standard for quantum-chemistry
+//! results; see the README, "QCSchema documents", for the version followed): read
+//! as an orbital source when they carry a wave function, written by
+//! `solve --qcschema`. Recognised by content (`schema_name`), never by file name.
+//! Every error names the JSON path of the field at fault.
+
+use serde::Deserialize;
+
+use crate::error::{Error, Result};
+use crate::solve::orbitals::OrbitalSet;
+
+mod basis;
+mod doc;
+mod read;
+mod write;
+
+pub use write::{check, to_json};
+
+/// The result schemas read: version 1's name (and its older spelling) and
+/// version 2's.
+const RESULT_NAMES: [&str; 3] = [
+    "qcschema_output",
+    "qc_schema_output",
+    "qcschema_atomic_result",
+];
+
+/// The `schema_name` of a JSON document, if it has one at the top level. Reads the
+/// whole text once without keeping anything else.
+pub fn schema_name(text: &str) -> Option<String> {
+    #[derive(Deserialize)]
+    struct Probe {
+        schema_name: Option<String>,
+    }
+    serde_json::from_str::<Probe>(text).ok()?.schema_name
+}
+
+/// Reads a QCSchema result document into an orbital set.
+pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
+    let bad = |field: String, msg: String| Error::input(format!("{name}: {field}: {msg}"));
+    let mut de = serde_json::Deserializer::from_str(text);
+    let doc: doc::Document = serde_path_to_error::deserialize(&mut de).map_err(|e| {
+        let path = e.path().to_string();
+        let inner = e.into_inner();
+        let msg = inner.to_string();
+        let msg = msg
+            .rsplit_once(" at line ")
+            .map_or(msg.as_str(), |(m, _)| m);
+        if path == "." {
+            Error::input(format!(
+                "{name} line {} column {}: {msg}",
+                inner.line(),
+                inner.column()
+            ))
+        } else {
+            bad(path, msg.to_string())
+        }
+    })?;
+    if !RESULT_NAMES.contains(&doc.schema_name.as_str()) {
+        return Err(bad(
+            "schema_name".into(),
+            format!(
+                "{:?} is not a QCSchema result; lobecast reads a result with a wave function (schema_name \"qcschema_output\" or \"qcschema_atomic_result\")",
+                doc.schema_name
+            ),
+        ));
+    }
+    if doc.success == Some(false) {
+        return Err(bad(
+            "success".into(),
+            "false: the document reports a failed computation".into(),
+        ));
+    }
+    let molecule = doc
+        .molecule
+        .ok_or_else(|| bad("molecule".into(), "missing".into()))?;
+    let (atoms, charge, multiplicity) =
+        read::read_molecule(molecule).map_err(|(f, m)| bad(f, m))?;
+    crate::io::orbitals::check_atoms(&atoms, |i| format!(", molecule.symbols[{i}]"))
+        .map_err(|e| e.context(name))?;
+    let wf = doc.wavefunction.ok_or_else(|| {
+        bad(
+            "wavefunction".into(),
+            "missing: the document carries no orbitals (run the program with the wavefunction protocol set to \"orbitals_and_eigenvalues\" or \"all\")".into(),
+        )
+    })?;
+    let basis = basis::read_basis(&wf.basis, &atoms, crate::io::orbitals::MAX_BASIS_FUNCTIONS)
+        .map_err(|(f, m)| bad(f, m))?;
+    let nbf = basis.len();
+    let estimate = 8.0 * 4.0 * (nbf as f64).powi(2);
+    crate::budget::check_memory(
+        estimate,
+        crate::budget::DEFAULT_MEMORY,
+        &format!("{name}: the overlap matrix of {nbf} functions and the orbitals"),
+    )?;
+    let props = doc.properties.unwrap_or_default();
+    let (alpha, beta) = read::read_orbitals(wf, nbf, &props).map_err(|(f, m)| bad(f, m))?;
+    if let Some(e) = props.scf_total_energy.filter(|e| !e.is_finite()) {
+        return Err(bad(
+            "properties.scf_total_energy".into(),
+            format!("{e} is not finite"),
+        ));
+    }
+    let model = doc.model.or_else(|| {
+        doc.input_data
+            .and_then(|i| i.specification)
+            .and_then(|s| s.model)
+    });
+    let method = model
+        .as_ref()
+        .and_then(|m| m.method.clone())
+        .unwrap_or_else(|| "orbitals from a QCSchema document".into());
+    let mut notes = vec![describe(
+        model.as_ref(),
+        doc.provenance.as_ref(),
+        &basis.name,
+    )];
+    // lobecast's own cautions come back as such (`assemble` turns them into data).
+    notes.extend(
+        doc.extras
+            .and_then(|e| e.lobecast)
+            .map(|l| l.notes)
+            .unwrap_or_default(),
+    );
+    crate::io::orbitals::assemble(
+        crate::io::orbitals::Decoded {
+            atoms,
+            basis,
+            alpha,
+            beta,
+            charge,
+            multiplicity,
+            total_energy: props.scf_total_energy,
+            method: Some(method),
+            notes,
+            reference: None,
+            energy_in_ev: false,
+            orbital_name: Box::new(move |b, i| {
+                let s = if b { "b" } else { "a" };
+                format!("wavefunction.scf_orbitals_{s} orbital {i} (column {i})")
+            }),
+        },
+        name,
+    )
+}
+
+/// "read from a QCSchema document by Psi4 1.9: hf/6-31G*", as far as it says.
+fn describe(model: Option<&doc::ModelDoc>, prov: Option<&doc::Provenance>, basis: &str) -> String {
+    let method = model.and_then(|m| m.method.clone());
+    let basis_name = model
+        .and_then(|m| m.basis.as_ref())
+        .and_then(|b| b.as_str().map(str::to_string))
+        .unwrap_or_else(|| basis.to_string());
+    let creator = prov.and_then(|p| p.creator.clone()).map(|c| {
+        match prov
+            .and_then(|p| p.version.clone())
+            .filter(|v| !v.is_empty())
+        {
+            Some(v) => format!("{c} {v}"),
+            None => c,
+        }
+    });
+    let by = creator.map_or(String::new(), |c| format!(" by {c}"));
+    match method {
+        Some(m) => format!("read from a QCSchema document{by}: {m}/{basis_name}"),
+        None => format!("read from a QCSchema document{by}: basis {basis_name}"),
+    }
+}
