@@ -20,6 +20,8 @@ pub struct Decoded {
     pub alpha: Vec<Orbital>,
     pub beta: Option<Vec<Orbital>>,
     pub charge: Option<i32>,
+    /// Where the charge is stated, for messages.
+    pub charge_field: &'static str,
     pub multiplicity: Option<u32>,
     /// Hartree, including the nuclear repulsion, where the source states it.
     pub total_energy: Option<f64>,
@@ -44,6 +46,7 @@ pub fn assemble(d: Decoded, name: &str) -> Result<OrbitalSet> {
         alpha: mut orbitals,
         mut beta,
         charge,
+        charge_field,
         multiplicity,
         total_energy,
         method,
@@ -72,7 +75,7 @@ pub fn assemble(d: Decoded, name: &str) -> Result<OrbitalSet> {
     if let Some(q) = charge {
         if !whole || (f64::from(q) - (nuclear - electrons)).abs() > 1e-6 {
             return Err(bad(
-                "charge".into(),
+                charge_field.into(),
                 format!(
                     "{q} disagrees with the occupations, which hold {electrons} electrons against a nuclear charge of {nuclear}"
                 ),

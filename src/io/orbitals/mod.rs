@@ -265,6 +265,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             alpha: orbitals,
             beta,
             charge: doc.charge,
+            charge_field: "charge",
             multiplicity: doc.multiplicity,
             total_energy: doc.total_energy.map(|e| e * energy),
             method: doc.method,

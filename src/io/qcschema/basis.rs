@@ -185,7 +185,7 @@ fn check_shell(s: &ShellDoc, path: &str) -> FieldResult<u64> {
         return Err((
             format!("{path}.coefficients"),
             format!(
-                "has {} rows, but a shell fusing {} angular momenta needs one row each",
+                "has {} row(s), but a shell fusing {} angular momenta needs one row each",
                 s.coefficients.len(),
                 s.angular_momentum.len()
             ),

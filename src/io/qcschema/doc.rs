@@ -264,13 +264,18 @@ impl<'de> Deserialize<'de> for Matrix {
 }
 
 impl Matrix {
-    /// The values row-major with `cols` per row, or what is wrong with the shape.
-    pub fn row_major(self, rows: usize) -> std::result::Result<(Vec<f64>, usize), String> {
+    /// The values row-major with `cols` per row, or what is wrong with the shape;
+    /// `row` says what a row stands for ("atom", "basis function").
+    pub fn row_major(
+        self,
+        rows: usize,
+        row: &str,
+    ) -> std::result::Result<(Vec<f64>, usize), String> {
         match self {
             Matrix::Flat(v) => {
                 if rows == 0 || v.is_empty() || v.len() % rows != 0 {
                     return Err(format!(
-                        "has {} numbers, not a whole number of rows of {rows}",
+                        "has {} numbers, not a multiple of {rows} (one row per {row})",
                         v.len()
                     ));
                 }
@@ -279,7 +284,10 @@ impl Matrix {
             }
             Matrix::Rows(r) => {
                 if r.len() != rows {
-                    return Err(format!("has {} rows, expected {rows}", r.len()));
+                    return Err(format!(
+                        "has {} row(s), expected {rows} (one per {row})",
+                        r.len()
+                    ));
                 }
                 let cols = r.first().map_or(0, Vec::len);
                 if cols == 0 {

@@ -128,6 +128,7 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             alpha,
             beta,
             charge,
+            charge_field: "molecule.molecular_charge",
             multiplicity,
             total_energy: props.scf_total_energy,
             method: Some(method),

@@ -19,7 +19,7 @@ pub fn read_molecule(m: MoleculeDoc) -> FieldResult<(Vec<Atom>, Option<i32>, Opt
     }
     let (xyz, cols) = m
         .geometry
-        .row_major(n)
+        .row_major(n, "atom")
         .map_err(|e| ("molecule.geometry".to_string(), e))?;
     if cols != 3 {
         return Err((
@@ -203,7 +203,9 @@ fn channel(
             "missing: the document carries no orbitals to draw (ask the program for the wavefunction, e.g. protocols.wavefunction = \"orbitals_and_eigenvalues\")".to_string(),
         )
     })?;
-    let (c, nmo) = c.row_major(nbf).map_err(|e| (field("orbitals"), e))?;
+    let (c, nmo) = c
+        .row_major(nbf, "basis function")
+        .map_err(|e| (field("orbitals"), e))?;
     if nmo > nbf {
         return Err((
             field("orbitals"),
