@@ -24,6 +24,10 @@ const RESULT_NAMES: [&str; 3] = [
     "qcschema_atomic_result",
 ];
 
+/// Appended to the method's name of orbitals read from a document, for titles and
+/// footnotes; `write` takes it off again, so a document reads back unchanged.
+pub(crate) const SOURCE_MARK: &str = " (QCSchema)";
+
 /// The `schema_name` of a JSON document, if it has one at the top level. Reads the
 /// whole text once without keeping anything else.
 pub fn schema_name(text: &str) -> Option<String> {
@@ -105,10 +109,10 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
             .and_then(|i| i.specification)
             .and_then(|s| s.model)
     });
-    let method = model
-        .as_ref()
-        .and_then(|m| m.method.clone())
-        .unwrap_or_else(|| "orbitals from a QCSchema document".into());
+    let method = match model.as_ref().and_then(|m| m.method.clone()) {
+        Some(m) => format!("{m}{SOURCE_MARK}"),
+        None => format!("orbitals{SOURCE_MARK}"),
+    };
     let mut notes = vec![describe(
         model.as_ref(),
         doc.provenance.as_ref(),

@@ -122,7 +122,11 @@ pub fn to_json(set: &OrbitalSet) -> Result<String> {
     };
     let method = match set.origin {
         MethodKind::Rhf | MethodKind::Uhf => "hf".to_string(),
-        _ => set.method.clone(),
+        _ => set
+            .method
+            .strip_suffix(super::SOURCE_MARK)
+            .unwrap_or(&set.method)
+            .to_string(),
     };
     let cautions: Vec<&str> = set.caveats.iter().map(|c| c.text()).collect();
     let doc = json!({
