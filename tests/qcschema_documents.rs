@@ -52,7 +52,12 @@ fn flat_and_row_matrices_read_alike_and_columns_are_orbitals() {
         // Restricted per-spin occupation 1 is a doubly filled orbital.
         assert_eq!(set.orbitals[0].occupation, 2.0);
         assert_eq!(set.spin.total_energy, Some(-1.1167));
+        // The document says hf/sto-3g: both cautions go with the numbers.
+        use lobecast::solve::Caveat;
+        assert!(set.has_caveat(Caveat::Uncorrelated) && set.has_caveat(Caveat::MinimalBasis));
+        assert_eq!(set.caveats.len(), 2);
         // Normalised to the overlap's precision: ⟨ψ|ψ⟩ = 2c²(1 ± S) = 1.
+
         let s = set.overlap.as_ref().unwrap();
         assert!((s[(0, 1)] - 0.659318).abs() < 2e-6, "S = {}", s[(0, 1)]);
     }

@@ -118,13 +118,37 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         doc.provenance.as_ref(),
         &basis.name,
     )];
-    // lobecast's own cautions come back as such (`assemble` turns them into data).
+    // lobecast's own cautions come back as such (`assemble` turns them into data),
+    // and the ones the document's model calls for are added: Hartree–Fock lacks
+    // correlation, a minimal (STO-nG) basis gives qualitative shapes only.
     notes.extend(
         doc.extras
             .and_then(|e| e.lobecast)
             .map(|l| l.notes)
             .unwrap_or_default(),
     );
+    let method_name = model
+        .as_ref()
+        .and_then(|m| m.method.as_deref())
+        .unwrap_or("")
+        .to_ascii_lowercase();
+    let basis_name = model
+        .as_ref()
+        .and_then(|m| m.basis.as_ref())
+        .and_then(|b| b.as_str())
+        .unwrap_or(&basis.name)
+        .to_ascii_lowercase();
+    let mut add = |c: crate::solve::Caveat| {
+        if !notes.iter().any(|n| n == c.text()) {
+            notes.push(c.text().to_string());
+        }
+    };
+    if ["hf", "scf", "rhf", "uhf", "rohf"].contains(&method_name.as_str()) {
+        add(crate::solve::Caveat::Uncorrelated);
+    }
+    if basis_name.starts_with("sto-") {
+        add(crate::solve::Caveat::MinimalBasis);
+    }
     crate::io::orbitals::assemble(
         crate::io::orbitals::Decoded {
             atoms,
