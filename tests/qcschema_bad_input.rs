@@ -252,7 +252,7 @@ fn cases() -> Vec<Case> {
             },
             "properties.calcinfo_nalpha",
         ),
-        ("truncated text", |_| {}, "line"),
+        ("truncated text", |_| {}, "line 1 column"),
     ]
 }
 

@@ -147,7 +147,7 @@ pub fn read(path: &Path) -> Result<OrbitalSet> {
     )
     .map_err(|e| Error::reading(&what, e))?;
     let name = path.display().to_string();
-    if crate::io::qcschema::schema_name(&text).is_some() {
+    if crate::io::qcschema::is_document(&text) {
         return crate::io::qcschema::parse(&text, &name);
     }
     parse(&text, &name)

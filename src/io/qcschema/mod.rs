@@ -28,14 +28,39 @@ const RESULT_NAMES: [&str; 3] = [
 /// footnotes; `write` takes it off again, so a document reads back unchanged.
 pub(crate) const SOURCE_MARK: &str = " (QCSchema)";
 
-/// The `schema_name` of a JSON document, if it has one at the top level. Reads the
-/// whole text once without keeping anything else.
-pub fn schema_name(text: &str) -> Option<String> {
+/// Whether a JSON text is a QCSchema document rather than a lobecast orbital file:
+/// it has a top-level `schema_name`, or, without one, a `molecule` or `wavefunction`
+/// and no `format`. Reads the whole text once without keeping anything else. A text
+/// that is not valid JSON is judged by the keys it names, so its syntax error comes
+/// from the reader of the format it was meant to be.
+pub fn is_document(text: &str) -> bool {
     #[derive(Deserialize)]
     struct Probe {
-        schema_name: Option<String>,
+        schema_name: Option<serde::de::IgnoredAny>,
+        format: Option<serde::de::IgnoredAny>,
+        molecule: Option<serde::de::IgnoredAny>,
+        wavefunction: Option<serde::de::IgnoredAny>,
     }
-    serde_json::from_str::<Probe>(text).ok()?.schema_name
+    match serde_json::from_str::<Probe>(text) {
+        Ok(p) => {
+            p.schema_name.is_some()
+                || (p.format.is_none() && (p.molecule.is_some() || p.wavefunction.is_some()))
+        }
+        Err(_) => {
+            !text.contains("\"lobecast-orbitals\"")
+                && [
+                    "schema_name",
+                    "wavefunction",
+                    "molecule",
+                    "driver",
+                    "return_result",
+                    "provenance",
+                    "protocols",
+                ]
+                .iter()
+                .any(|k| text.contains(&format!("\"{k}\"")))
+        }
+    }
 }
 
 /// Reads a QCSchema result document into an orbital set.
@@ -49,7 +74,17 @@ pub fn parse(text: &str, name: &str) -> Result<OrbitalSet> {
         let msg = msg
             .rsplit_once(" at line ")
             .map_or(msg.as_str(), |(m, _)| m);
-        if path == "." {
+        let missing = msg
+            .strip_prefix("missing field `")
+            .and_then(|m| m.strip_suffix('`'));
+        if let Some(field) = missing {
+            let at = if path == "." {
+                String::new()
+            } else {
+                format!("{path}.")
+            };
+            bad(format!("{at}{field}"), "missing".into())
+        } else if path == "." || inner.is_syntax() || inner.is_eof() {
             Error::input(format!(
                 "{name} line {} column {}: {msg}",
                 inner.line(),
