@@ -107,6 +107,16 @@ fn field_sets(set: &OrbitalSet) -> Vec<Vec<Field>> {
         "orbital-density:1",
         "orbital-deformation:1",
     ]));
+    // 3, 4 and 5 distinct orbitals: the fused lattice path takes up to four
+    // (`lattice::fused::MAX_ORBITALS`), the two-step path more.
+    for k in 3..=5 {
+        if set.orbitals.len() >= k {
+            let names: Vec<String> = (1..=k).map(|i| format!("orbital:{i}")).collect();
+            let mut list: Vec<&str> = names.iter().map(String::as_str).collect();
+            list.push("orbital-density:1");
+            sets.push(parse(&list));
+        }
+    }
     if set.reference.is_some() {
         many.push(Field::Deformation);
         sets.push(parse(&["deformation"]));

@@ -5,10 +5,13 @@
 //! for its points, in the same order and with the same screening, so each value is
 //! the same to the bit.
 
+mod fused;
+
 use super::TILE;
 use crate::basis::Shell;
 use crate::basis::gaussian::{CARTESIAN, SCREEN};
 use crate::basis::slater::{exp_neg, powers};
+pub(super) use fused::{MAX_ORBITALS, Terms};
 
 /// One primitive's slab tables.
 #[derive(Debug, Clone, Copy, Default)]
