@@ -8,11 +8,34 @@ use std::sync::LazyLock;
 /// Powers of ten 10^k for k in −350..=350, each the correctly rounded f64 (exact for
 /// 0 ≤ k ≤ 22), so that scaling is one multiplication or division.
 const POW_OFFSET: i32 = 350;
-static POW10: LazyLock<Vec<f64>> = LazyLock::new(|| {
-    (-POW_OFFSET..=POW_OFFSET)
+static POW10: LazyLock<Powers> = LazyLock::new(|| {
+    let all: Vec<f64> = (-POW_OFFSET..=POW_OFFSET)
         .map(|k| format!("1e{k}").parse().expect("a power of ten parses"))
-        .collect()
+        .collect();
+    let p = |k: i32| all[(k + POW_OFFSET) as usize];
+    // The factors `scale10` multiplies by for k = 0..=105, so that the usual values
+    // scale without its branches: up to 22 one exact power (times 1.0, which is
+    // exact), beyond it the same two halves in the same order.
+    let split = (0..=FAST_K)
+        .map(|k| {
+            if k <= 22 {
+                (p(k), 1.0)
+            } else {
+                (p(k / 2), p(k - k / 2))
+            }
+        })
+        .collect();
+    Powers { all, split }
 });
+
+/// The largest k = 5 − e of the fast path: |v| ≥ 2^−330 gives e ≥ −100.
+const FAST_K: i32 = 105;
+
+/// The power table and the split factors of the fast path.
+pub(super) struct Powers {
+    all: Vec<f64>,
+    split: Vec<(f64, f64)>,
+}
 
 /// x · 10^k. Positive k up to 22 multiply by an exact power; negative k divide by
 /// one, which keeps the result correctly rounded where possible.
@@ -79,14 +102,39 @@ pub fn e13(v: f64) -> Result<[u8; 13], NotFinite> {
 
 /// The powers of ten the formatter scales by; a loop over many values takes the
 /// slice once rather than checking the lazy table per value.
-pub(super) fn pow10() -> &'static [f64] {
+pub(super) fn pow10() -> &'static Powers {
     &POW10
 }
 
 /// [`e13`]'s bytes as the low 13 bytes of a little-endian u128 (the top three zero),
 /// so that a caller with room can store all 16 at once; `pow` is [`pow10`].
 #[inline(always)]
-pub(super) fn e13_bits(v: f64, pow: &[f64]) -> Result<u128, NotFinite> {
+pub(super) fn e13_bits(v: f64, powers: &Powers) -> Result<u128, NotFinite> {
+    let pow = &powers.all[..];
+    let a = v.abs();
+    let e2 = (a.to_bits() >> 52) as i32 - 1023;
+    // The usual values, 2^−330 ≤ |v| < 2^19 (finite, nonzero, normal): the steps of
+    // `decompose` without its rare branches, returned only where `decompose` would
+    // neither renormalise nor leave the two-digit exponent range (else the general
+    // path below recomputes the same numbers).
+    if (-330..19).contains(&e2) {
+        let mut e = (e2 * 78913) >> 18;
+        if a >= pow[(e + 1 + POW_OFFSET) as usize] {
+            e += 1;
+        }
+        let (s1, s2) = powers.split[(5 - e) as usize];
+        let m = round_even(a * s1 * s2);
+        if (100_000..1_000_000).contains(&m) && e >= MIN_EXPONENT {
+            return Ok(common_bits(v < 0.0, e, m));
+        }
+    }
+    general(v, pow)
+}
+
+/// Every value by the general steps: non-finite refused, zero and tiny values as
+/// zero, huge ones with four decimals.
+#[inline(never)]
+fn general(v: f64, pow: &[f64]) -> Result<u128, NotFinite> {
     if !v.is_finite() {
         return Err(NotFinite(v));
     }
@@ -365,6 +413,39 @@ mod tests {
                 check(false, e, m);
                 check(true, e, m);
             }
+        }
+    }
+
+    /// The fast path gives the general path's bytes: values next to every power of
+    /// ten and every rounding boundary 9.999995·10^k (a few ulps either side), and
+    /// random values over the whole fast range and beyond it.
+    #[test]
+    fn fast_path_matches_the_general_path() {
+        let powers = pow10();
+        let mut cases = Vec::new();
+        for k in -101..=7 {
+            for base in [1.0, 9.999995, 9.9999949999, 5.000005, 1.000005] {
+                let x: f64 = format!("{base}e{k}").parse().unwrap();
+                for d in -4i64..=4 {
+                    cases.push(f64::from_bits((x.to_bits() as i64 + d) as u64));
+                }
+            }
+        }
+        let mut seed = 0x853c_49e6_748f_ea9bu64;
+        for _ in 0..300_000 {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            // Binary exponents −340..=30: across both ends of the fast range.
+            let e = seed % 371 + 1023 - 340;
+            cases.push(f64::from_bits((e << 52) | (seed >> 12)));
+        }
+        for v in cases.into_iter().flat_map(|v| [v, -v]) {
+            assert_eq!(
+                e13_bits(v, powers).unwrap(),
+                general(v, &powers.all).unwrap(),
+                "{v:e}"
+            );
         }
     }
 
