@@ -72,6 +72,19 @@ impl Combo {
         }
     }
 
+    /// Coefficients of the distinct orbitals, function-major: coef[μ·norb + i].
+    pub(super) fn coefficients(&self) -> &[f64] {
+        &self.coef
+    }
+
+    /// Whether some field reads the basis values themselves (the deformations),
+    /// not only orbitals.
+    pub(super) fn needs_basis_values(&self) -> bool {
+        self.recipes
+            .iter()
+            .any(|r| matches!(r, Recipe::OrbitalDeformation(..) | Recipe::Deformation(..)))
+    }
+
     /// ψ_i on the first n points of the tile: psi[i·TILE + t], from phi (functions ×
     /// TILE) over the functions in `active` (increasing). Points up to n rounded up to
     /// the block width are computed too and ignored.

@@ -7,6 +7,7 @@
 
 use super::combine::Combo;
 use super::groups::{self, Group};
+use super::lattice::MAX_ORBITALS;
 use super::scratch::{Scratch, at_least, with_scratch};
 use super::{Field, TILE};
 use crate::basis::Shell;
@@ -39,6 +40,10 @@ pub struct FieldSampler {
     combo: Combo,
     /// Tells this sampler's cached lattice tables from another's (`lattice`).
     id: u64,
+    /// Orbitals straight from the lattice tables on axis-aligned slabs
+    /// (`lattice::fused`): every shell Gaussian, a few orbitals, no field that reads
+    /// basis values.
+    fused: bool,
 }
 
 /// Source of `FieldSampler::id`.
@@ -88,9 +93,14 @@ impl FieldSampler {
             });
         }
         let offsets = set.basis.offsets();
+        let combo = Combo::new(&resolved, set.basis.len());
+        let gaussian = (set.basis.shells.iter()).all(|s| matches!(s, Shell::Gaussian(_)));
         Ok(FieldSampler {
             groups: groups::build(&set.basis.shells, &offsets),
-            combo: Combo::new(&resolved, set.basis.len()),
+            fused: gaussian
+                && (1..=MAX_ORBITALS).contains(&combo.norb)
+                && !combo.needs_basis_values(),
+            combo,
             id: NEXT_ID.fetch_add(1, std::sync::atomic::Ordering::Relaxed),
             shells: set.basis.shells.clone(),
             offsets,
@@ -134,6 +144,21 @@ impl FieldSampler {
             s.lattice.fill(self.id, &self.shells, x, ys, zs);
             for (p0, len) in slab_tiles(ys.len(), zs.len()) {
                 let dst = &mut out[p0 * nf..(p0 + len) * nf];
+                if self.fused {
+                    let c = &self.combo;
+                    s.lattice.tile_orbitals(
+                        &self.shells,
+                        &self.offsets,
+                        c.coefficients(),
+                        c.norb,
+                        p0,
+                        len,
+                        &mut s.terms,
+                        &mut s.psi,
+                    );
+                    c.fields(&s.phi, &s.psi, len, &mut s.acc, dst);
+                    continue;
+                }
                 groups::tile(
                     &self.groups,
                     &self.shells,

@@ -59,6 +59,35 @@ fn gaussian_spdf() -> OrbitalSet {
     one_electron(&spec, [0.3, 0.0, -1.0])
 }
 
+/// Long contractions of pure d and f functions: a lattice line then gathers more
+/// terms than the kernel holds at once (`lattice::MAX_TERMS`), so it sums them in
+/// several rounds.
+fn long_contractions() -> OrbitalSet {
+    let prims = |n: usize| {
+        (0..n)
+            .map(|k| {
+                format!(
+                    "[{}, {}]",
+                    0.3 * 1.6f64.powi(k as i32),
+                    1.0 / (k + 1) as f64
+                )
+            })
+            .collect::<Vec<_>>()
+            .join(", ")
+    };
+    let text = format!(
+        "set = \"custom\"\n[shells]\nH = [\
+        {{ l = 0, primitives = [{}] }}, \
+        {{ l = 2, primitives = [{}] }}, \
+        {{ l = 3, primitives = [{}] }}]\n",
+        prims(40),
+        prims(12),
+        prims(12)
+    );
+    let spec: BasisSpec = toml::from_str(&text).unwrap();
+    one_electron(&spec, [0.2, -0.1, -1.0])
+}
+
 fn field_sets(set: &OrbitalSet) -> Vec<Vec<Field>> {
     let parse = |l: &[&str]| {
         l.iter()
@@ -78,6 +107,16 @@ fn field_sets(set: &OrbitalSet) -> Vec<Vec<Field>> {
         "orbital-density:1",
         "orbital-deformation:1",
     ]));
+    // 3, 4 and 5 distinct orbitals: the fused lattice path takes up to four
+    // (`lattice::fused::MAX_ORBITALS`), the two-step path more.
+    for k in 3..=5 {
+        if set.orbitals.len() >= k {
+            let names: Vec<String> = (1..=k).map(|i| format!("orbital:{i}")).collect();
+            let mut list: Vec<&str> = names.iter().map(String::as_str).collect();
+            list.push("orbital-density:1");
+            sets.push(parse(&list));
+        }
+    }
     if set.reference.is_some() {
         many.push(Field::Deformation);
         sets.push(parse(&["deformation"]));
@@ -194,6 +233,13 @@ fn gaussian_s_to_f_is_bit_identical() {
     let set = gaussian_spdf();
     check_slabs(&set, "Gaussian s–f H2+");
     check_points(&set, "Gaussian s–f H2+");
+}
+
+#[test]
+fn long_contractions_are_bit_identical() {
+    let set = long_contractions();
+    check_slabs(&set, "long contractions");
+    check_points(&set, "long contractions");
 }
 
 /// No points, no fields: nothing to write and no panic, as before.

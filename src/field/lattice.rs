@@ -5,10 +5,13 @@
 //! for its points, in the same order and with the same screening, so each value is
 //! the same to the bit.
 
+mod fused;
+
 use super::TILE;
 use crate::basis::Shell;
 use crate::basis::gaussian::{CARTESIAN, SCREEN};
 use crate::basis::slater::{exp_neg, powers};
+pub(super) use fused::{MAX_ORBITALS, Terms};
 
 /// One primitive's slab tables.
 #[derive(Debug, Clone, Copy, Default)]
@@ -175,6 +178,11 @@ impl Tables {
         self.tile_any(shells, offsets, p0, n, phi, live)
     }
 
+    /// Each function's value on each line segment of the tile is summed in
+    /// registers from its terms w · z-table, in the order `values_lattice` adds
+    /// them (primitive, then Cartesian component), starting from 0.0: the same
+    /// additions as zeroing the row and adding term by term, without the zeroing
+    /// pass and the reloads of the row.
     #[inline(always)]
     fn tile_any(
         &self,
@@ -187,43 +195,84 @@ impl Tables {
     ) {
         let (ny, nz) = (self.ny, self.nz);
         let (j0, j1) = (p0 / nz, (p0 + n - 1) / nz + 1);
+        let mut terms = [(0.0f64, 0usize); MAX_TERMS];
         for (k, (shell, &o)) in shells.iter().zip(offsets).enumerate() {
             let Shell::Gaussian(g) = shell else { continue };
             let rows = &mut phi[o * TILE..(o + g.len()) * TILE];
-            for f in 0..g.len() {
-                rows[f * TILE..f * TILE + n].fill(0.0);
-            }
             let comps = CARTESIAN[g.l as usize];
+            let prims = &self.prims[self.first[k]..self.first[k + 1]];
             let mut any = false;
-            for p in &self.prims[self.first[k]..self.first[k + 1]] {
-                for j in j0..j1 {
-                    if !self.ok[p.line + j] {
-                        continue;
-                    }
-                    let k0 = p0.max(j * nz) - j * nz;
-                    let k1 = (p0 + n).min((j + 1) * nz) - j * nz;
-                    let t0 = j * nz + k0 - p0;
-                    for (ci, c) in comps.iter().enumerate() {
-                        let coef = p.xpow[c[0] as usize] * self.data[p.y + c[1] as usize * ny + j];
-                        if coef == 0.0 {
+            for j in j0..j1 {
+                let k0 = p0.max(j * nz) - j * nz;
+                let k1 = (p0 + n).min((j + 1) * nz) - j * nz;
+                let t0 = j * nz + k0 - p0;
+                for (f, row) in g.rows.iter().enumerate() {
+                    let dst = &mut rows[f * TILE + t0..][..k1 - k0];
+                    let (mut nt, mut fresh) = (0, true);
+                    for p in prims {
+                        if !self.ok[p.line + j] {
                             continue;
                         }
-                        let zrow = &self.data[p.z + c[2] as usize * nz..][k0..k1];
-                        for (f, row) in g.rows.iter().enumerate() {
+                        for (ci, c) in comps.iter().enumerate() {
+                            let coef =
+                                p.xpow[c[0] as usize] * self.data[p.y + c[1] as usize * ny + j];
+                            if coef == 0.0 {
+                                continue;
+                            }
                             let w = row[ci] * coef;
                             if w != 0.0 {
-                                any = true;
-                                let dst = &mut rows[f * TILE + t0..][..k1 - k0];
-                                for (o, zv) in dst.iter_mut().zip(zrow) {
-                                    *o += w * zv;
+                                if nt == MAX_TERMS {
+                                    sum_terms(&terms, &self.data, dst, fresh);
+                                    (nt, fresh) = (0, false);
                                 }
+                                terms[nt] = (w, p.z + c[2] as usize * nz + k0);
+                                nt += 1;
                             }
                         }
+                    }
+                    any |= nt > 0 || !fresh;
+                    if nt > 0 || fresh {
+                        sum_terms(&terms[..nt], &self.data, dst, fresh);
                     }
                 }
             }
             live[o..o + g.len()].fill(any);
         }
+    }
+}
+
+/// Terms gathered before they are summed into a row segment; more are summed in
+/// several rounds (the partial sums stored and reloaded, which changes no bits).
+const MAX_TERMS: usize = 32;
+
+/// dst[t] = (((start + w₁ z₁[t]) + w₂ z₂[t]) + …) for the terms (w, start of the z
+/// row in `data`), with start 0.0 when `fresh`, else dst's own value; eight points at
+/// a time in registers.
+#[inline(always)]
+fn sum_terms(terms: &[(f64, usize)], data: &[f64], dst: &mut [f64], fresh: bool) {
+    const W: usize = 8;
+    let len = dst.len();
+    let mut k = 0;
+    while k + W <= len {
+        let mut acc = [0.0f64; W];
+        if !fresh {
+            acc.copy_from_slice(&dst[k..k + W]);
+        }
+        for &(w, z) in terms {
+            let zv: &[f64; W] = data[z + k..z + k + W].try_into().expect("eight values");
+            for q in 0..W {
+                acc[q] += w * zv[q];
+            }
+        }
+        dst[k..k + W].copy_from_slice(&acc);
+        k += W;
+    }
+    for (t, o) in dst.iter_mut().enumerate().skip(k) {
+        let mut acc = if fresh { 0.0 } else { *o };
+        for &(w, z) in terms {
+            acc += w * data[z + t];
+        }
+        *o = acc;
     }
 }
 

@@ -25,6 +25,8 @@ pub(super) struct Scratch {
     pub acc: Vec<f64>,
     /// The live functions of a tile, in increasing order.
     pub active: Vec<u32>,
+    /// Terms of one line segment on the fused path (`lattice::fused`).
+    pub terms: super::lattice::Terms,
     /// Separable per-slab tables of the lattice path (see `lattice`).
     pub lattice: super::lattice::Tables,
 }
@@ -40,6 +42,7 @@ impl Scratch {
             + self.live.capacity()
             + 4 * self.active.capacity()
             + self.lattice.bytes()
+            + self.terms.bytes()
     }
 }
 

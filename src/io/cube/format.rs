@@ -8,15 +8,38 @@ use std::sync::LazyLock;
 /// Powers of ten 10^k for k in −350..=350, each the correctly rounded f64 (exact for
 /// 0 ≤ k ≤ 22), so that scaling is one multiplication or division.
 const POW_OFFSET: i32 = 350;
-static POW10: LazyLock<Vec<f64>> = LazyLock::new(|| {
-    (-POW_OFFSET..=POW_OFFSET)
+static POW10: LazyLock<Powers> = LazyLock::new(|| {
+    let all: Vec<f64> = (-POW_OFFSET..=POW_OFFSET)
         .map(|k| format!("1e{k}").parse().expect("a power of ten parses"))
-        .collect()
+        .collect();
+    let p = |k: i32| all[(k + POW_OFFSET) as usize];
+    // The factors `scale10` multiplies by for k = 0..=105, so that the usual values
+    // scale without its branches: up to 22 one exact power (times 1.0, which is
+    // exact), beyond it the same two halves in the same order.
+    let split = (0..=FAST_K)
+        .map(|k| {
+            if k <= 22 {
+                (p(k), 1.0)
+            } else {
+                (p(k / 2), p(k - k / 2))
+            }
+        })
+        .collect();
+    Powers { all, split }
 });
+
+/// The largest k = 5 − e of the fast path: |v| ≥ 2^−330 gives e ≥ −100.
+const FAST_K: i32 = 105;
+
+/// The power table and the split factors of the fast path.
+pub(super) struct Powers {
+    all: Vec<f64>,
+    split: Vec<(f64, f64)>,
+}
 
 /// x · 10^k. Positive k up to 22 multiply by an exact power; negative k divide by
 /// one, which keeps the result correctly rounded where possible.
-#[inline]
+#[inline(always)]
 fn scale10(x: f64, k: i32, pow: &[f64]) -> f64 {
     if (0..=22).contains(&k) {
         x * pow[(k + POW_OFFSET) as usize]
@@ -71,31 +94,77 @@ pub fn push_e13(buf: &mut Vec<u8>, v: f64) -> Result<(), NotFinite> {
 /// The 13 bytes [`push_e13`] appends, for writing into a pre-sized slot.
 #[inline(always)]
 pub fn e13(v: f64) -> Result<[u8; 13], NotFinite> {
+    let bytes = e13_bits(v, pow10())?.to_le_bytes();
+    let mut out = [0u8; 13];
+    out.copy_from_slice(&bytes[..13]);
+    Ok(out)
+}
+
+/// The powers of ten the formatter scales by; a loop over many values takes the
+/// slice once rather than checking the lazy table per value.
+pub(super) fn pow10() -> &'static Powers {
+    &POW10
+}
+
+/// [`e13`]'s bytes as the low 13 bytes of a little-endian u128 (the top three zero),
+/// so that a caller with room can store all 16 at once; `pow` is [`pow10`].
+#[inline(always)]
+pub(super) fn e13_bits(v: f64, powers: &Powers) -> Result<u128, NotFinite> {
+    let pow = &powers.all[..];
+    let a = v.abs();
+    let e2 = (a.to_bits() >> 52) as i32 - 1023;
+    // The usual values, 2^−330 ≤ |v| < 2^19 (finite, nonzero, normal): the steps of
+    // `decompose` without its rare branches, returned only where `decompose` would
+    // neither renormalise nor leave the two-digit exponent range (else the general
+    // path below recomputes the same numbers).
+    if (-330..19).contains(&e2) {
+        let mut e = (e2 * 78913) >> 18;
+        if a >= pow[(e + 1 + POW_OFFSET) as usize] {
+            e += 1;
+        }
+        let (s1, s2) = powers.split[(5 - e) as usize];
+        let m = round_even(a * s1 * s2);
+        if (100_000..1_000_000).contains(&m) && e >= MIN_EXPONENT {
+            return Ok(common_bits(v < 0.0, e, m));
+        }
+    }
+    general(v, pow)
+}
+
+/// Every value by the general steps: non-finite refused, zero and tiny values as
+/// zero, huge ones with four decimals.
+#[inline(never)]
+fn general(v: f64, pow: &[f64]) -> Result<u128, NotFinite> {
     if !v.is_finite() {
         return Err(NotFinite(v));
     }
     if v == 0.0 {
-        return Ok(*ZERO);
+        return Ok(ZERO_BITS);
     }
-    let (mut e, mut m) = decompose(v.abs(), 5);
+    let (e, m) = decompose(v.abs(), 5, pow);
     if e < MIN_EXPONENT {
-        return Ok(*ZERO);
+        return Ok(ZERO_BITS);
     }
-    let decimals = if e > MAX_EXPONENT {
-        (e, m) = decompose(v.abs(), 4);
-        // Rounding the largest doubles to four decimals can overshoot the largest
-        // double (1.79769E+308 → 1.7977E+308, which reads back as infinity): round
-        // those toward zero instead.
-        if e == 308 && m > 17_976 {
-            m = 17_976;
-        }
-        4
-    } else {
-        5
-    };
-    if decimals == 5 && e.unsigned_abs() < 100 {
-        return Ok(common(v < 0.0, e, m));
+    if e <= MAX_EXPONENT {
+        return Ok(common_bits(v < 0.0, e, m));
     }
+    let mut wide = [0u8; 16];
+    wide[..13].copy_from_slice(&huge(v, pow));
+    Ok(u128::from_le_bytes(wide))
+}
+
+/// Magnitudes of 1e100 and more, with four decimals (see [`MAX_EXPONENT`]).
+#[cold]
+#[inline(never)]
+fn huge(v: f64, pow: &[f64]) -> [u8; 13] {
+    let (e, mut m) = decompose(v.abs(), 4, pow);
+    // Rounding the largest doubles to four decimals can overshoot the largest
+    // double (1.79769E+308 → 1.7977E+308, which reads back as infinity): round
+    // those toward zero instead.
+    if e == 308 && m > 17_976 {
+        m = 17_976;
+    }
+    let decimals = 4;
     let ae = e.unsigned_abs() as usize;
     let mut out = [b' '; 13];
     let mut p = 13;
@@ -108,70 +177,120 @@ pub fn e13(v: f64) -> Result<[u8; 13], NotFinite> {
     p -= 2;
     out[p] = b'E';
     out[p + 1] = if e < 0 { b'-' } else { b'+' };
-    if decimals == 5 {
-        // The usual case, by digit pairs: hi is 10..99 (the leading digit, the point,
-        // then the first decimal), lo the other four decimals.
-        let (hi, lo) = ((m / 10_000) as usize, (m % 10_000) as usize);
-        p -= 4;
-        out[p..p + 2].copy_from_slice(&PAIRS[2 * (lo / 100)..2 * (lo / 100) + 2]);
-        out[p + 2..p + 4].copy_from_slice(&PAIRS[2 * (lo % 100)..2 * (lo % 100) + 2]);
-        p -= 3;
-        out[p] = PAIRS[2 * hi];
-        out[p + 1] = b'.';
-        out[p + 2] = PAIRS[2 * hi + 1];
-    } else {
-        // Four decimals (huge values only): digit by digit from the last.
-        for _ in 0..decimals {
-            p -= 1;
-            out[p] = b'0' + (m % 10) as u8;
-            m /= 10;
-        }
-        p -= 2;
-        out[p] = b'0' + m as u8;
-        out[p + 1] = b'.';
+    // Four decimals (huge values only): digit by digit from the last.
+    for _ in 0..decimals {
+        p -= 1;
+        out[p] = b'0' + (m % 10) as u8;
+        m /= 10;
     }
+    p -= 2;
+    out[p] = b'0' + m as u8;
+    out[p + 1] = b'.';
     if v < 0.0 {
         p -= 1;
         out[p] = b'-';
     }
     debug_assert!(p >= 1, "a written value must keep its separating space");
-    Ok(out)
+    out
 }
 
-/// The usual layout, ` -d.dddddE±dd`, assembled in one 128-bit register and stored
-/// once: building it byte by byte in memory and copying it out made every value wait
-/// on store forwarding, the largest single cost of cube writing in the profile.
-#[inline(always)]
+/// The usual layout as bytes (tests).
+#[cfg(test)]
 fn common(negative: bool, e: i32, m: u64) -> [u8; 13] {
-    let pair = |k: u64| -> u128 {
-        let k = 2 * k as usize;
-        u128::from(PAIRS[k]) | (u128::from(PAIRS[k + 1]) << 8)
-    };
-    let (lead, rest) = (m / 100_000, m % 100_000);
-    let ae = u64::from(e.unsigned_abs());
-    let mut x: u128 = u128::from(b' ')
-        | (u128::from(if negative { b'-' } else { b' ' }) << 8)
-        | (u128::from(b'0' + lead as u8) << 16)
-        | (u128::from(b'.') << 24)
-        | (u128::from(b'0' + (rest / 10_000) as u8) << 32)
-        | (pair((rest / 100) % 100) << 40)
-        | (pair(rest % 100) << 56)
-        | (u128::from(b'E') << 72)
-        | (u128::from(if e < 0 { b'-' } else { b'+' }) << 80);
-    x |= pair(ae) << 88;
-    let bytes = x.to_le_bytes();
+    let bytes = common_bits(negative, e, m).to_le_bytes();
     let mut out = [0u8; 13];
     out.copy_from_slice(&bytes[..13]);
     out
 }
 
+/// The usual layout, ` -d.dddddE±dd`, for m in 100 000..=999 999 and |e| ≤ 99, as
+/// the little-endian bits of its 13 bytes (the top three zero), assembled in
+/// registers and stored once: building it byte by byte in memory made every value
+/// wait on store forwarding. The six digits come from two lookups of three (one
+/// division by 1000 instead of four by powers of ten), the exponent's four bytes
+/// from one.
+#[inline(always)]
+fn common_bits(negative: bool, e: i32, m: u64) -> u128 {
+    let (hi, lo) = ((m / 1000) as usize, (m % 1000) as usize);
+    u128::from(b' ')
+        | (u128::from(if negative { b'-' } else { b' ' }) << 8)
+        | (u128::from(DIGITS.dot3[hi]) << 16)
+        | (u128::from(DIGITS.three[lo]) << 48)
+        | (u128::from(DIGITS.exp[(e + 99) as usize]) << 72)
+}
+
+/// Lookup tables of the usual layout, little-endian byte strings: `three[k]` is k's
+/// three digits, `dot3[k]` the first of them, the point, then the other two, and
+/// `exp[e + 99]` is `E±dd`.
+struct Digits {
+    three: [u32; 1000],
+    dot3: [u32; 1000],
+    exp: [u32; 199],
+}
+
+const fn digits() -> Digits {
+    let mut t = Digits {
+        three: [0; 1000],
+        dot3: [0; 1000],
+        exp: [0; 199],
+    };
+    let mut k = 0;
+    while k < 1000 {
+        let (a, b, c) = (
+            (b'0' + (k / 100) as u8) as u32,
+            (b'0' + (k / 10 % 10) as u8) as u32,
+            (b'0' + (k % 10) as u8) as u32,
+        );
+        t.three[k] = a | (b << 8) | (c << 16);
+        t.dot3[k] = a | ((b'.' as u32) << 8) | (b << 16) | (c << 24);
+        k += 1;
+    }
+    let mut i = 0;
+    while i < 199 {
+        let e = i as i32 - 99;
+        let ae = e.unsigned_abs();
+        let sign = if e < 0 { b'-' } else { b'+' };
+        t.exp[i] = (b'E' as u32)
+            | ((sign as u32) << 8)
+            | ((b'0' as u32 + ae / 10) << 16)
+            | ((b'0' as u32 + ae % 10) << 24);
+        i += 1;
+    }
+    t
+}
+
+static DIGITS: Digits = digits();
+
 const ZERO: &[u8; 13] = b"  0.00000E+00";
+const ZERO_BITS: u128 = {
+    let mut wide = [0u8; 16];
+    let mut i = 0;
+    while i < 13 {
+        wide[i] = ZERO[i];
+        i += 1;
+    }
+    u128::from_le_bytes(wide)
+};
+
+/// x rounded to the nearest integer, ties to even, as `f64::round_ties_even`
+/// (which baseline x86-64 compiles to a libm call). Below 2^52 adding and
+/// subtracting 2^52 does it: the sum lies in [2^52, 2^53), where the spacing of
+/// doubles is 1, so the addition itself rounds x to an integer, ties to even (IEEE
+/// 754 round-to-nearest-even), and the subtraction is exact.
+#[inline(always)]
+fn round_even(x: f64) -> u64 {
+    const TWO52: f64 = 4_503_599_627_370_496.0;
+    if (0.0..TWO52).contains(&x) {
+        ((x + TWO52) - TWO52) as i64 as u64
+    } else {
+        x.round_ties_even() as u64
+    }
+}
 
 /// The decimal exponent e and the rounded mantissa m (decimals + 1 digits) with
 /// a ≈ m · 10^(e − decimals), for a finite a > 0.
 #[inline(always)]
-fn decompose(a: f64, decimals: i32) -> (i32, u64) {
-    let pow: &[f64] = &POW10;
+fn decompose(a: f64, decimals: i32, pow: &[f64]) -> (i32, u64) {
     let (lo, hi) = (10u64.pow(decimals as u32), 10u64.pow(decimals as u32 + 1));
     // floor(log10 a) from the binary exponent (log10 2 ≈ 78913 / 2^18), then one
     // comparison against the table corrects the estimate.
@@ -182,14 +301,14 @@ fn decompose(a: f64, decimals: i32) -> (i32, u64) {
     } else if e + 1 + POW_OFFSET < pow.len() as i32 && a >= pow[(e + 1 + POW_OFFSET) as usize] {
         e += 1;
     }
-    let mut m = scale10(a, decimals - e, pow).round_ties_even() as u64;
+    let mut m = round_even(scale10(a, decimals - e, pow));
     if m >= hi {
         // 9.999995… rounds up to 10.00000: renormalise.
         e += 1;
-        m = scale10(a, decimals - e, pow).round_ties_even() as u64;
+        m = round_even(scale10(a, decimals - e, pow));
     } else if m < lo {
         e -= 1;
-        m = scale10(a, decimals - e, pow).round_ties_even() as u64;
+        m = round_even(scale10(a, decimals - e, pow));
     }
     (e, m)
 }
@@ -257,6 +376,108 @@ mod tests {
         // The largest double rounds toward zero so that it reads back as finite.
         assert_eq!(ours(-f64::MAX), " -1.7976E+308");
         assert_eq!(ours(f64::MAX), "  1.7976E+308");
+    }
+
+    /// The table-driven digits against the standard library's integer formatting
+    /// (an independent construction of the layout): every mantissa with a few
+    /// exponents, every exponent with a few mantissas, both signs.
+    #[test]
+    fn every_mantissa_and_exponent_is_laid_out() {
+        let expected = |neg: bool, e: i32, m: u64| {
+            let s = m.to_string();
+            let sign = if e < 0 { '-' } else { '+' };
+            let text = format!(
+                "{}{}.{}E{sign}{:02}",
+                if neg { "-" } else { "" },
+                &s[..1],
+                &s[1..],
+                e.abs()
+            );
+            format!("{text:>13}")
+        };
+        let check = |neg: bool, e: i32, m: u64| {
+            let got = common(neg, e, m);
+            assert_eq!(
+                std::str::from_utf8(&got).unwrap(),
+                expected(neg, e, m),
+                "m={m} e={e}"
+            );
+        };
+        for m in 100_000..=999_999 {
+            for e in [-99, -7, 0, 5, 99] {
+                check(m % 2 == 0, e, m);
+            }
+        }
+        for e in -99..=99 {
+            for m in [100_000, 123_456, 500_000, 999_999] {
+                check(false, e, m);
+                check(true, e, m);
+            }
+        }
+    }
+
+    /// The fast path gives the general path's bytes: values next to every power of
+    /// ten and every rounding boundary 9.999995·10^k (a few ulps either side), and
+    /// random values over the whole fast range and beyond it.
+    #[test]
+    fn fast_path_matches_the_general_path() {
+        let powers = pow10();
+        let mut cases = Vec::new();
+        for k in -101..=7 {
+            for base in [1.0, 9.999995, 9.9999949999, 5.000005, 1.000005] {
+                let x: f64 = format!("{base}e{k}").parse().unwrap();
+                for d in -4i64..=4 {
+                    cases.push(f64::from_bits((x.to_bits() as i64 + d) as u64));
+                }
+            }
+        }
+        let mut seed = 0x853c_49e6_748f_ea9bu64;
+        for _ in 0..300_000 {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            // Binary exponents −340..=30: across both ends of the fast range.
+            let e = seed % 371 + 1023 - 340;
+            cases.push(f64::from_bits((e << 52) | (seed >> 12)));
+        }
+        for v in cases.into_iter().flat_map(|v| [v, -v]) {
+            assert_eq!(
+                e13_bits(v, powers).unwrap(),
+                general(v, &powers.all).unwrap(),
+                "{v:e}"
+            );
+        }
+    }
+
+    /// The add-and-subtract rounding against the standard library's.
+    #[test]
+    fn rounding_ties_to_even() {
+        for x in [
+            0.0,
+            0.5,
+            1.5,
+            2.5,
+            99_999.5,
+            100_000.5,
+            999_999.5,
+            123_456.499_999_999_99,
+            4.5e15,
+            9.1e15,
+            1e20,
+        ] {
+            assert_eq!(round_even(x), x.round_ties_even() as u64, "{x}");
+        }
+        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+        for _ in 0..1_000_000 {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            let x = (seed >> 11) as f64 / (1u64 << 53) as f64 * 1e7;
+            let half = (x.floor() + 0.5) * if seed % 3 == 0 { 1.0 } else { 0.0 };
+            for v in [x, half] {
+                assert_eq!(round_even(v), v.round_ties_even() as u64, "{v}");
+            }
+        }
     }
 
     #[test]
