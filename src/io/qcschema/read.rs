@@ -139,7 +139,7 @@ pub fn read_orbitals(
         }
     }
     let a = channel(
-        Some("a"),
+        "a",
         scf_orbitals_a,
         scf_eigenvalues_a,
         scf_occupations_a.clone(),
@@ -176,7 +176,7 @@ pub fn read_orbitals(
         });
     }
     let b = channel(
-        Some("b"),
+        "b",
         scf_orbitals_b,
         scf_eigenvalues_b,
         scf_occupations_b,
@@ -188,14 +188,13 @@ pub fn read_orbitals(
 
 /// One spin channel's orbitals (occupations 0–1).
 fn channel(
-    spin: Option<&str>,
+    s: &str,
     coefficients: Option<super::doc::Matrix>,
     eigenvalues: Option<Vec<f64>>,
     occ: Option<Vec<f64>>,
     count: Option<u64>,
     nbf: usize,
 ) -> FieldResult<Vec<Orbital>> {
-    let s = spin.unwrap_or("a");
     let field = |f: &str| format!("wavefunction.scf_{f}_{s}");
     let c = coefficients.ok_or_else(|| {
         (
