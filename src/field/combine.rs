@@ -6,7 +6,7 @@
 //! must stay the sum Σ_μ c_iμ φ_μ(p) taken from 0.0 in increasing μ without fused
 //! multiply-adds, which is what the evaluation always computed and what a blocked
 //! library kernel (which splits and reorders the μ sum) does not promise. Register
-//! blocks of 4 orbitals × 4 points (or 1 × 8) keep that order per value.
+//! blocks of 4 orbitals × 8 points (or 1 × 8) keep that order per value.
 //! Functions whose values are exactly zero on the tile are left out of the sum,
 //! and so are zero coefficients: adding ±0 to a partial sum that starts at +0.0
 //! never changes it (IEEE 754 round-to-nearest: x + ±0 = x for x ≠ −0, and such a
@@ -110,8 +110,8 @@ impl Combo {
         let norb = self.norb;
         let mut i = 0;
         while i + 4 <= norb {
-            for t in (0..n).step_by(4) {
-                block::<4, 4>(&self.coef, norb, i, phi, active, t, psi);
+            for t in (0..n).step_by(8) {
+                block::<4, 8>(&self.coef, norb, i, phi, active, t, psi);
             }
             i += 4;
         }

@@ -155,6 +155,14 @@ fn segment<const NO: usize>(
     psi: &mut [f64],
 ) {
     let mut k = 0;
+    // Two orbitals or fewer leave registers for sixteen points: more independent
+    // sums in flight per term (the same operations on each point).
+    if NO <= 2 {
+        while k + 16 <= len {
+            block::<NO, 16>(data, work, coef, at(k), psi);
+            k += 16;
+        }
+    }
     while k + 8 <= len {
         block::<NO, 8>(data, work, coef, at(k), psi);
         k += 8;
