@@ -50,7 +50,7 @@ fn cube() -> (PathBuf, u64) {
             orbital_numbers: None,
         };
         let density = |s: &Slab, v: &mut [f64]| {
-            for (x, y) in s.points.iter().zip(v) {
+            for (x, y) in s.points(&mut Vec::new()).iter().zip(v) {
                 let r = (x[0] * x[0] + x[1] * x[1] + x[2] * x[2]).sqrt();
                 *y = (-2.0 * r).exp() / std::f64::consts::PI;
             }

@@ -63,7 +63,11 @@ fn round_trip(h: &CubeHeader) -> f64 {
     write_streaming(
         h,
         |pts, out| {
-            for (p, vals) in pts.points.iter().zip(out.chunks_exact_mut(nf)) {
+            for (p, vals) in pts
+                .points(&mut Vec::new())
+                .iter()
+                .zip(out.chunks_exact_mut(nf))
+            {
                 for (f, v) in vals.iter_mut().enumerate() {
                     *v = test_value(*p, f);
                 }
@@ -365,7 +369,7 @@ fn write_cube(path: &std::path::Path, h: f64, l: f64, f: impl Fn([f64; 3]) -> f6
     write_streaming(
         &header,
         |pts, out| {
-            for (p, v) in pts.points.iter().zip(out) {
+            for (p, v) in pts.points(&mut Vec::new()).iter().zip(out) {
                 *v = f(*p);
             }
         },

@@ -6,7 +6,7 @@
 //! `groups`, `lattice`; checked against a verbatim copy in `identity`).
 
 use super::combine::Combo;
-use super::groups::{self, Group};
+use super::groups::{self, At, Group};
 use super::lattice::MAX_ORBITALS;
 use super::scratch::{Scratch, at_least, with_scratch};
 use super::{Field, TILE};
@@ -122,7 +122,7 @@ impl FieldSampler {
         with_scratch(|s| {
             self.prepare(s);
             for (tile, dst) in points.chunks(TILE).zip(out.chunks_mut(TILE * nf)) {
-                groups::tile(&self.groups, &self.shells, tile, s, false);
+                groups::tile(&self.groups, &self.shells, At::Points(tile), s, false);
                 self.finish_tile(tile.len(), s, dst);
             }
         });
@@ -132,9 +132,10 @@ impl FieldSampler {
     /// evaluation when the slab is axis-aligned.
     pub fn evaluate_slab(&self, slab: &Slab, out: &mut [f64]) {
         let Some((x, ys, zs)) = slab.lattice else {
-            return self.evaluate(slab.points, out);
+            // Not a lattice: the slab lists its points, nothing is built.
+            return self.evaluate(slab.points(&mut Vec::new()), out);
         };
-        let n = slab.points.len();
+        let n = slab.len();
         let nf = self.check_out(n, out);
         if nf == 0 || n == 0 {
             return;
@@ -159,13 +160,14 @@ impl FieldSampler {
                     c.fields(&s.phi, &s.psi, len, &mut s.acc, dst);
                     continue;
                 }
-                groups::tile(
-                    &self.groups,
-                    &self.shells,
-                    &slab.points[p0..p0 + len],
-                    s,
-                    true,
-                );
+                let at = At::Lattice {
+                    x,
+                    ys,
+                    zs,
+                    p0,
+                    n: len,
+                };
+                groups::tile(&self.groups, &self.shells, at, s, true);
                 s.lattice.tile(
                     &self.shells,
                     &self.offsets,

@@ -68,16 +68,59 @@ pub(super) fn max_primitives(groups: &[Group]) -> usize {
         .unwrap_or(0)
 }
 
+/// The points of one tile: listed, or points p0..p0+n of an axis-aligned slab
+/// (x, ys[j], zs[k]), k fastest, whose points are never listed.
+#[derive(Clone, Copy)]
+pub(super) enum At<'a> {
+    Points(&'a [[f64; 3]]),
+    Lattice {
+        x: f64,
+        ys: &'a [f64],
+        zs: &'a [f64],
+        p0: usize,
+        n: usize,
+    },
+}
+
+impl At<'_> {
+    fn len(&self) -> usize {
+        match *self {
+            At::Points(p) => p.len(),
+            At::Lattice { n, .. } => n,
+        }
+    }
+
+    /// Offsets p − c of the points from a centre into `d`: the same subtractions of
+    /// the same coordinates either way (a lattice point is (x, y_j, z_k) to the bit).
+    fn offsets(&self, c: [f64; 3], d: &mut [[f64; 3]]) {
+        match *self {
+            At::Points(points) => {
+                for (d, p) in d.iter_mut().zip(points) {
+                    *d = [p[0] - c[0], p[1] - c[1], p[2] - c[2]];
+                }
+            }
+            At::Lattice { x, ys, zs, p0, n } => {
+                let nz = zs.len();
+                let dx = x - c[0];
+                let mut t = 0;
+                while t < n {
+                    let (j, k0) = ((p0 + t) / nz, (p0 + t) % nz);
+                    let len = (nz - k0).min(n - t);
+                    let dy = ys[j] - c[1];
+                    for (d, z) in d[t..t + len].iter_mut().zip(&zs[k0..k0 + len]) {
+                        *d = [dx, dy, z - c[2]];
+                    }
+                    t += len;
+                }
+            }
+        }
+    }
+}
+
 /// Fills `s.phi` (functions × TILE) and `s.live` for the points of one tile; with
 /// `slater_only`, Gaussian shells are left to the lattice path.
-pub(super) fn tile(
-    groups: &[Group],
-    shells: &[Shell],
-    points: &[[f64; 3]],
-    s: &mut Scratch,
-    slater_only: bool,
-) {
-    let n = points.len();
+pub(super) fn tile(groups: &[Group], shells: &[Shell], at: At, s: &mut Scratch, slater_only: bool) {
+    let n = at.len();
     debug_assert!(n <= TILE);
     at_least(&mut s.d, TILE);
     at_least(&mut s.r, TILE);
@@ -85,10 +128,7 @@ pub(super) fn tile(
         if slater_only && matches!(g.kind, Kind::Gaussian(..)) {
             continue;
         }
-        let c = g.center;
-        for (d, p) in s.d.iter_mut().zip(points) {
-            *d = [p[0] - c[0], p[1] - c[1], p[2] - c[2]];
-        }
+        at.offsets(g.center, &mut s.d[..n]);
         let d = &s.d[..n];
         let live = match &g.kind {
             Kind::Slater(z) => {

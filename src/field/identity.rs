@@ -156,13 +156,12 @@ fn check_slabs(set: &OrbitalSet, name: &str) {
                     .iter()
                     .flat_map(|&y| zs.iter().map(move |&z| [x, y, z]))
                     .collect();
-                let slab = Slab {
-                    points: &points,
-                    lattice: Some((x, &ys, &zs)),
-                };
+                // Listed and unlisted: the sampler lists none on a lattice.
+                let slab = Slab::new(&points, Some((x, &ys, &zs)));
+                let bare = Slab::new(&[], Some((x, &ys, &zs)));
                 let mut new = vec![f64::NAN; points.len() * nf];
                 let mut old = vec![f64::NAN; points.len() * nf];
-                sampler.evaluate_slab(&slab, &mut new);
+                sampler.evaluate_slab(&bare, &mut new);
                 Old(&sampler).evaluate_slab(&slab, &mut old);
                 assert_same(
                     &new,
@@ -200,10 +199,7 @@ fn check_points(set: &OrbitalSet, name: &str) {
         sampler.evaluate(&points, &mut new);
         Old(&sampler).evaluate(&points, &mut old);
         assert_same(&new, &old, &format!("{name}, {nf} fields, points"));
-        let slab = Slab {
-            points: &points[..1000],
-            lattice: None,
-        };
+        let slab = Slab::new(&points[..1000], None);
         let mut new = vec![f64::NAN; 1000 * nf];
         sampler.evaluate_slab(&slab, &mut new);
         assert_same(

@@ -29,15 +29,17 @@ impl Old<'_> {
     /// evaluation when the slab is axis-aligned.
     pub(super) fn evaluate_slab(&self, slab: &Slab, out: &mut [f64]) {
         let Some((x, ys, zs)) = slab.lattice else {
-            return Old(self.0).evaluate(slab.points, out);
+            return Old(self.0).evaluate(slab.points(&mut Vec::new()), out);
         };
-        let n = slab.points.len();
+        let mut buf = Vec::new();
+        let points = slab.points(&mut buf);
+        let n = points.len();
         let mut phi = vec![0.0; n * self.0.nbf];
         for (shell, &o) in self.0.shells.iter().zip(&self.0.offsets) {
             let dst = &mut phi[o * n..(o + shell.len()) * n];
             match shell {
                 Shell::Gaussian(g) => values_lattice(g, x, ys, zs, dst),
-                Shell::Slater(_) => shell_values(shell, slab.points, dst),
+                Shell::Slater(_) => shell_values(shell, points, dst),
             }
         }
         self.combine_fields(&phi, n, out);

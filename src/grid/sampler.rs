@@ -22,9 +22,46 @@ use crate::error::Result;
 
 /// One slab of a box: its points (k fastest) and, when the box is axis-aligned, the
 /// lattice coordinates (x, all y, all z) that let separable evaluators skip work.
+/// The sampler lists the points of skewed boxes only: on an axis-aligned box they
+/// are (x, y_j, z_k), which evaluators that work from the lattice never need, and
+/// [`Slab::points`] builds them for those that do.
 pub struct Slab<'a> {
-    pub points: &'a [[f64; 3]],
+    points: &'a [[f64; 3]],
     pub lattice: Option<(f64, &'a [f64], &'a [f64])>,
+}
+
+impl<'a> Slab<'a> {
+    /// A slab of `points`, or of the lattice (x, ys, zs) whose points are (x, y_j,
+    /// z_k) with k fastest; `points` may then be empty.
+    pub fn new(points: &'a [[f64; 3]], lattice: Option<(f64, &'a [f64], &'a [f64])>) -> Self {
+        Slab { points, lattice }
+    }
+
+    /// Number of points.
+    pub fn len(&self) -> usize {
+        match self.lattice {
+            Some((_, ys, zs)) if self.points.is_empty() => ys.len() * zs.len(),
+            _ => self.points.len(),
+        }
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.len() == 0
+    }
+
+    /// The points, k fastest: the listed ones, or the lattice's built into `buf`.
+    /// On an axis-aligned box these are the very numbers `GridBox::point` gives (the
+    /// off-axis terms add exact zeros; checked by test).
+    pub fn points<'b>(&'b self, buf: &'b mut Vec<[f64; 3]>) -> &'b [[f64; 3]] {
+        match self.lattice {
+            Some((x, ys, zs)) if self.points.is_empty() => {
+                buf.clear();
+                buf.extend(ys.iter().flat_map(|&y| zs.iter().map(move |&z| [x, y, z])));
+                buf
+            }
+            _ => self.points,
+        }
+    }
 }
 
 /// Slabs per batch: enough for every thread to have two, so the batch's end waits
@@ -76,7 +113,8 @@ impl<'g, E: Fn(&Slab, &mut [f64]) + Sync> Evaluator<'g, E> {
     }
 
     /// Evaluates slab `i` into this thread's scratch (values zeroed first, as a fresh
-    /// buffer would be) and passes the values to `then`.
+    /// buffer would be) and passes the values to `then`. The points of an
+    /// axis-aligned slab are not listed (see [`Slab`]).
     fn with_slab<R>(&self, i: usize, then: impl FnOnce(&[f64]) -> R) -> R {
         let slot = rayon::current_thread_index()
             .map_or(self.scratch.len() - 1, |t| t.min(self.scratch.len() - 1));
@@ -84,9 +122,12 @@ impl<'g, E: Fn(&Slab, &mut [f64]) + Sync> Evaluator<'g, E> {
             .lock()
             .unwrap_or_else(|poisoned| poisoned.into_inner());
         let Scratch { points, values } = &mut *guard;
-        self.grid.slab_points(i, points);
+        points.clear();
+        if !self.aligned {
+            self.grid.slab_points(i, points);
+        }
         values.clear();
-        values.resize(points.len() * self.per_point, 0.0);
+        values.resize(self.ys.len() * self.zs.len() * self.per_point, 0.0);
         let lattice =
             (self.aligned).then(|| (self.grid.point(i, 0, 0)[0], &self.ys[..], &self.zs[..]));
         (self.eval)(&Slab { points, lattice }, values);
@@ -274,7 +315,7 @@ mod tests {
     #[test]
     fn slabs_arrive_in_order() {
         let mut seen = Vec::new();
-        let first_x = |s: &Slab, v: &mut [f64]| v.fill(s.points[0][0]);
+        let first_x = |s: &Slab, v: &mut [f64]| v.fill(s.points(&mut Vec::new())[0][0]);
         stream_slabs(
             &grid(50),
             1,
@@ -287,6 +328,53 @@ mod tests {
         )
         .unwrap();
         assert_eq!(seen, (0..50).map(|i| i as f64).collect::<Vec<_>>());
+    }
+
+    /// The points an axis-aligned slab builds from its lattice are `GridBox::point`'s
+    /// to the bit (evaluators that work from the lattice rely on it), for origins and
+    /// spacings of every sign, including a negative zero.
+    #[test]
+    fn lattice_points_are_the_grid_points() {
+        for (origin, h) in [
+            (
+                [-9.670563, -9.064638, -5.017059],
+                [0.048474, 0.048474, 0.048474],
+            ),
+            ([-0.0, 0.1, -0.0], [0.3, -0.7, 1e-3]),
+            ([1e5, -3.3, 0.0], [-0.1, 0.2, 0.15]),
+        ] {
+            let g = GridBox {
+                origin,
+                axes: [[h[0], 0.0, 0.0], [0.0, h[1], -0.0], [0.0, 0.0, h[2]]],
+                counts: [4, 5, 7],
+            };
+            let seen = Mutex::new(Vec::new());
+            stream_slabs(
+                &g,
+                1,
+                |s: &Slab, _: &mut [f64]| {
+                    let pts = s.points(&mut Vec::new()).to_vec();
+                    assert_eq!(s.len(), pts.len());
+                    seen.lock().unwrap().push(pts);
+                },
+                |_| (),
+                |_| Ok(()),
+            )
+            .unwrap();
+            let mut expected = Vec::new();
+            let mut got = seen.into_inner().unwrap();
+            got.sort_by(|a, b| a[0][0].total_cmp(&b[0][0]));
+            for i in 0..4 {
+                let mut p = Vec::new();
+                g.slab_points(i, &mut p);
+                expected.push(p);
+            }
+            expected.sort_by(|a, b| a[0][0].total_cmp(&b[0][0]));
+            let bits = |v: &Vec<Vec<[f64; 3]>>| -> Vec<u64> {
+                v.iter().flatten().flatten().map(|x| x.to_bits()).collect()
+            };
+            assert_eq!(bits(&got), bits(&expected), "origin {origin:?}");
+        }
     }
 
     /// A failing sink returns its error and the producer stops within the batches

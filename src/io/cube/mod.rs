@@ -54,7 +54,11 @@ mod pipeline_tests {
     /// Values of every sign and many magnitudes (and exact zeros) from the points.
     fn eval(fields: usize) -> impl Fn(&Slab, &mut [f64]) + Sync {
         move |slab, out| {
-            for (p, v) in slab.points.iter().zip(out.chunks_mut(fields)) {
+            for (p, v) in slab
+                .points(&mut Vec::new())
+                .iter()
+                .zip(out.chunks_mut(fields))
+            {
                 for (f, x) in v.iter_mut().enumerate() {
                     let s = (p[0] * 3.1 + p[1] * 1.7 - p[2] * (f as f64 + 0.5)).sin();
                     *x = if s.abs() < 0.05 {
@@ -75,13 +79,7 @@ mod pipeline_tests {
         for i in 0..h.grid.counts[0] {
             h.grid.slab_points(i, &mut points);
             let mut values = vec![0.0; points.len() * fields];
-            eval(fields)(
-                &Slab {
-                    points: &points,
-                    lattice: None,
-                },
-                &mut values,
-            );
+            eval(fields)(&Slab::new(&points, None), &mut values);
             format_slab(&values, h.grid.counts[2] * fields, &mut bytes).unwrap();
         }
         bytes
@@ -171,7 +169,7 @@ mod pipeline_tests {
         let bad = h.grid.point(17, 2, 3);
         let with_nan = |s: &Slab, v: &mut [f64]| {
             eval(2)(s, v);
-            if let Some(p) = s.points.iter().position(|p| *p == bad) {
+            if let Some(p) = s.points(&mut Vec::new()).iter().position(|p| *p == bad) {
                 v[2 * p + 1] = f64::NAN;
             }
         };
