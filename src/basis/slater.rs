@@ -107,9 +107,33 @@ impl SlaterShell {
         out: &mut [f64],
         stride: usize,
     ) {
+        if self.l == 0 {
+            return self.values_shared_s(r, e, out, stride);
+        }
         for (p, ((d, &r), &e)) in d.iter().zip(r).zip(e).enumerate() {
             let radial = self.radial(r, || e);
             self.angular(*d, radial, &mut out[p..], stride);
+        }
+    }
+
+    /// `values_shared` for an s shell, function by function over the points: the
+    /// same operations as `radial` and `angular` (r^0 is the 1.0 `powi_binary`
+    /// returns), in loops without calls or data-dependent branches.
+    fn values_shared_s(&self, r: &[f64], e: &[f64], out: &mut [f64], stride: usize) {
+        let k = self.n as i32 - 1;
+        let (zeta, norm) = (self.zeta, self.norm);
+        for (f, h) in self.harmonics.iter().enumerate() {
+            let c = h[0].0;
+            let row = &mut out[f * stride..f * stride + r.len()];
+            for ((o, &r), &e) in row.iter_mut().zip(r).zip(e) {
+                let power = if k == 0 { 1.0 } else { powi_binary(r, k) };
+                let radial = if zeta * r > SCREEN_ZETA_R {
+                    0.0
+                } else {
+                    norm * power * e
+                };
+                *o = if radial == 0.0 { 0.0 } else { radial * c };
+            }
         }
     }
 

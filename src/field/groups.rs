@@ -7,7 +7,8 @@
 use super::TILE;
 use super::scratch::{Scratch, at_least};
 use crate::basis::Shell;
-use crate::basis::slater::{SCREEN_ZETA_R, exp_neg};
+use crate::basis::slater::SCREEN_ZETA_R;
+use crate::numerics::exp::exp_in_place;
 
 /// e^(−x) is exactly 0 in binary64 for x beyond about 745.2; a tile where every
 /// α r² exceeds this has Gaussian values that are exactly ±0 (IEEE 754 exp
@@ -141,9 +142,10 @@ pub(super) fn tile(groups: &[Group], shells: &[Shell], at: At, s: &mut Scratch, 
                 let live = !screened;
                 if live {
                     at_least(&mut s.ex, TILE);
-                    for (e, &r) in s.ex.iter_mut().zip(&s.r[..n]) {
-                        *e = (-zeta * r).exp();
+                    for (e, &r) in s.ex[..n].iter_mut().zip(&s.r[..n]) {
+                        *e = -zeta * r;
                     }
+                    exp_in_place(&mut s.ex[..n]);
                     for &(k, o) in &g.members {
                         if let Shell::Slater(sh) = &shells[k] {
                             let out = &mut s.phi[o * TILE..(o + sh.len()) * TILE];
@@ -165,8 +167,9 @@ pub(super) fn tile(groups: &[Group], shells: &[Shell], at: At, s: &mut Scratch, 
                         let a = f64::from_bits(*a);
                         let row = &mut s.ex[k * TILE..k * TILE + n];
                         for (e, &r2) in row.iter_mut().zip(&s.r[..n]) {
-                            *e = exp_neg(-a * r2);
+                            *e = -a * r2;
                         }
+                        exp_in_place(row);
                     }
                     for &(k, o) in &g.members {
                         if let Shell::Gaussian(sh) = &shells[k] {
