@@ -34,8 +34,8 @@ fn library(x: f64) -> f64 {
     if x < -746.0 { 0.0 } else { x.exp() }
 }
 
-/// Arguments per block: the block's inputs are kept to redo the rare ones outside
-/// the table range with the library.
+/// Arguments per block: a block with any argument outside the main path's range
+/// goes one by one.
 #[cfg(all(target_arch = "x86_64", target_env = "gnu"))]
 const BLOCK: usize = 64;
 
@@ -43,19 +43,15 @@ const BLOCK: usize = 64;
 #[target_feature(enable = "avx2,fma")]
 fn exp_fma(xs: &mut [f64]) {
     for block in xs.chunks_mut(BLOCK) {
-        let mut input = [0.0; BLOCK];
-        input[..block.len()].copy_from_slice(block);
-        let mut outside = false;
-        for x in block.iter_mut() {
-            let v = *x;
-            outside |= !in_range(v);
-            *x = reduced(if in_range(v) { v } else { 0.0 });
-        }
-        if outside {
-            for (x, &v) in block.iter_mut().zip(&input) {
-                if !in_range(v) {
-                    *x = library(v);
-                }
+        if block.iter().all(|&v| in_range(v)) {
+            block.iter_mut().for_each(|x| *x = reduced(*x));
+        } else {
+            for x in block.iter_mut() {
+                *x = if in_range(*x) {
+                    reduced(*x)
+                } else {
+                    library(*x)
+                };
             }
         }
     }
