@@ -41,6 +41,9 @@ struct Axes {
 pub(super) struct Tables {
     /// Which sampler and lattice lines `data` and `axes` belong to.
     owner: u64,
+    /// Counts `fill` calls: names the slab the per-slab tables belong to (the fused
+    /// path keeps a line's gathered terms while they are this slab's).
+    generation: u64,
     ys: Vec<u64>,
     zs: Vec<u64>,
     data: Vec<f64>,
@@ -105,6 +108,7 @@ impl Tables {
             self.build_axes(owner, shells, ys, zs);
         }
         let ny = self.ny;
+        self.generation = self.generation.wrapping_add(1);
         self.ok.clear();
         self.prims.clear();
         self.first.clear();

@@ -26,6 +26,9 @@ pub(in crate::field) const MAX_ORBITALS: usize = 4;
 pub(in crate::field) struct Terms {
     terms: Vec<(f64, usize)>,
     funcs: Vec<(usize, usize, usize)>,
+    /// The (slab generation, line) these terms were gathered for, from the line's
+    /// first point: a line cut into several tiles is gathered once.
+    line: Option<(u64, usize)>,
 }
 
 impl Terms {
@@ -95,8 +98,11 @@ impl Tables {
             let k0 = p0.max(j * nz) - j * nz;
             let k1 = (p0 + n).min((j + 1) * nz) - j * nz;
             let t0 = j * nz + k0 - p0;
-            self.gather(shells, offsets, j, k0, work);
-            let at = |k: usize| (k, t0 + k);
+            if work.line != Some((self.generation, j)) {
+                self.gather(shells, offsets, j, work);
+                work.line = Some((self.generation, j));
+            }
+            let at = |k: usize| (k0 + k, t0 + k);
             match norb {
                 1 => segment::<1>(&self.data, work, coef, k1 - k0, at, psi),
                 2 => segment::<2>(&self.data, work, coef, k1 - k0, at, psi),
@@ -107,10 +113,10 @@ impl Tables {
         }
     }
 
-    /// The terms of every function on line j from point k0 on, with the screening
-    /// and the zero tests of `tile_any`, in its order.
+    /// The terms of every function on line j, with the screening and the zero tests
+    /// of `tile_any`, in its order.
     #[inline(always)]
-    fn gather(&self, shells: &[Shell], offsets: &[usize], j: usize, k0: usize, work: &mut Terms) {
+    fn gather(&self, shells: &[Shell], offsets: &[usize], j: usize, work: &mut Terms) {
         let (ny, nz) = (self.ny, self.nz);
         work.terms.clear();
         work.funcs.clear();
@@ -131,7 +137,7 @@ impl Tables {
                         }
                         let w = row[ci] * coef;
                         if w != 0.0 {
-                            work.terms.push((w, p.z + c[2] as usize * nz + k0));
+                            work.terms.push((w, p.z + c[2] as usize * nz));
                         }
                     }
                 }
@@ -144,7 +150,7 @@ impl Tables {
 }
 
 /// One line segment of `len` points: blocks of eight, then one point at a time;
-/// `at(k)` is (offset along the z rows, point in the tile).
+/// `at(k)` is (point along the z rows, point in the tile).
 #[inline(always)]
 fn segment<const NO: usize>(
     data: &[f64],
