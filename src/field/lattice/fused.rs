@@ -161,8 +161,14 @@ fn segment<const NO: usize>(
     psi: &mut [f64],
 ) {
     let mut k = 0;
-    // Two orbitals or fewer leave registers for sixteen points: more independent
-    // sums in flight per term (the same operations on each point).
+    // Fewer orbitals leave registers for more points (24 for one, 16 for two): more
+    // independent sums in flight per term (the same operations on each point).
+    if NO == 1 {
+        while k + 24 <= len {
+            block::<NO, 24>(data, work, coef, at(k), psi);
+            k += 24;
+        }
+    }
     if NO <= 2 {
         while k + 16 <= len {
             block::<NO, 16>(data, work, coef, at(k), psi);
