@@ -391,3 +391,34 @@ fn xyz_with_extended_huckel() {
     );
     assert!(d.path().join("f.cube").exists());
 }
+
+/// Help, version and a command's report into a pipe whose reader has gone
+/// (`lobecast slice --help | head -1`): the output ends quietly, with no panic on
+/// standard error (Rust's print macros panic on a closed pipe; found by hand).
+#[test]
+fn a_closed_pipe_on_standard_output_is_not_a_panic() {
+    use std::os::fd::OwnedFd;
+    use std::os::unix::net::UnixStream;
+    use std::process::{Command, Stdio};
+    let d = tempfile::tempdir().unwrap();
+    let model = write_file(d.path(), "h2.toml", H2);
+    let cases: &[&[&str]] = &[
+        &["slice", "--help"],
+        &["--help"],
+        &["--version"],
+        &["solve", model.to_str().unwrap()],
+    ];
+    for args in cases {
+        let (ours, theirs) = UnixStream::pair().unwrap();
+        drop(theirs);
+        let out = Command::new(env!("CARGO_BIN_EXE_lobecast"))
+            .args(*args)
+            .stdout(Stdio::from(OwnedFd::from(ours)))
+            .stderr(Stdio::piped())
+            .output()
+            .unwrap();
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert!(!err.contains("panicked"), "{args:?}: {err}");
+        assert_eq!(out.status.code(), Some(0), "{args:?}: {err}");
+    }
+}

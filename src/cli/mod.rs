@@ -132,12 +132,13 @@ pub fn report(e: &Error) -> i32 {
 fn clap_exit(e: clap::Error) -> i32 {
     use clap::error::ErrorKind as K;
     match e.kind() {
-        K::DisplayHelp | K::DisplayVersion => {
-            print!("{e}");
-            0
-        }
+        // Through `print_out`: `lobecast --help | head` ends quietly, not in a panic.
+        K::DisplayHelp | K::DisplayVersion => match common::print_out(&e.to_string()) {
+            Ok(()) => 0,
+            Err(err) => report(&err),
+        },
         K::DisplayHelpOnMissingArgumentOrSubcommand => {
-            print!("{e}");
+            let _ = common::print_out(&e.to_string());
             2
         }
         _ => {
